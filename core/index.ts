@@ -1,0 +1,10 @@
+/** The clinical engine's public surface. core/ imports nothing from bot/ or adapters/. */
+export * from "./analytes.js";
+export * from "./assess.js";
+export * from "./cautions.js";
+export * from "./format.js";
+export * from "./formulas.js";
+export * from "./inputs.js";
+export * from "./molar-mass.js";
+export type * from "./results.js";
+export * from "./units.js";

@@ -1,0 +1,79 @@
+/**
+ * The engine's typed inputs: every value in its analyte's canonical unit (mmol/L; mOsm/kg for
+ * measured osmolality; g/L for albumin). BUN is read into `urea` (one mmol of BUN is one mmol of
+ * urea). Validated with zod: a value outside its typo guard is refused, never used.
+ */
+import { z } from "zod";
+import { ANALYTES, type AnalyteId } from "./analytes.js";
+
+export const INPUT_KEYS = [
+  "sodium",
+  "potassium",
+  "chloride",
+  "bicarbonate",
+  "albumin",
+  "glucose",
+  "urea",
+  "measuredOsmolality",
+  "ethanol",
+  "methanol",
+  "ethyleneGlycol",
+  "isopropanol",
+  "acetone",
+  "propyleneGlycol",
+  "mannitol",
+] as const satisfies readonly AnalyteId[];
+export type InputKey = (typeof INPUT_KEYS)[number];
+
+function guarded(id: InputKey) {
+  const { plausible, name, canonicalUnit } = ANALYTES[id];
+  return z
+    .number()
+    .finite()
+    .min(plausible.min, {
+      message: `${name} below ${round(plausible.min)} ${canonicalUnit} is not plausible`,
+    })
+    .max(plausible.max, {
+      message: `${name} above ${round(plausible.max)} ${canonicalUnit} is not plausible`,
+    })
+    .optional();
+}
+
+function round(n: number): number {
+  return Math.round(n * 10) / 10;
+}
+
+export const LabInputsSchema = z
+  .object(
+    Object.fromEntries(INPUT_KEYS.map((k) => [k, guarded(k)])) as Record<
+      InputKey,
+      ReturnType<typeof guarded>
+    >,
+  )
+  .strict();
+
+export type LabInputs = Partial<Record<InputKey, number>>;
+
+export interface InputIssue {
+  key: InputKey;
+  message: string;
+}
+
+/** Validates inputs; returns the inputs that pass and one issue per refused value. */
+export function validateInputs(raw: Record<string, unknown>): { inputs: LabInputs; issues: InputIssue[] } {
+  const parsed = LabInputsSchema.safeParse(raw);
+  if (parsed.success) return { inputs: parsed.data as LabInputs, issues: [] };
+  const refused = new Set<string>();
+  const issues: InputIssue[] = [];
+  for (const issue of parsed.error.issues) {
+    const key = String(issue.path[0] ?? "");
+    if ((INPUT_KEYS as readonly string[]).includes(key)) {
+      refused.add(key);
+      issues.push({ key: key as InputKey, message: issue.message });
+    } else {
+      throw new Error(`unexpected input: ${issue.message}`);
+    }
+  }
+  const kept = Object.fromEntries(Object.entries(raw).filter(([k]) => !refused.has(k)));
+  return { inputs: LabInputsSchema.parse(kept) as LabInputs, issues };
+}

@@ -1,0 +1,29 @@
+import { readdirSync, readFileSync } from "node:fs";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+
+const root = join(import.meta.dirname, "..", "..");
+
+function sources(dir: string): string[] {
+  return readdirSync(join(root, dir), { recursive: true, encoding: "utf8" })
+    .filter((f) => f.endsWith(".ts"))
+    .map((f) => join(dir, f));
+}
+
+function imports(file: string): string[] {
+  const text = readFileSync(join(root, file), "utf8");
+  return [
+    ...text.matchAll(/(?:import|export)[^"']*from\s*["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g),
+  ].map((m) => m[1] ?? m[2] ?? "");
+}
+
+describe("dependency boundaries", () => {
+  it("core imports nothing from bot/ or adapters/, and no chat SDK or I/O", () => {
+    for (const file of sources("core")) {
+      for (const spec of imports(file)) {
+        expect(spec, file).not.toMatch(/\/(bot|adapters)\//);
+        expect(spec, file).not.toMatch(/^(@slack|botbuilder|node:|redis|ioredis)/);
+      }
+    }
+  });
+});
