@@ -48,7 +48,7 @@ export interface Analyte {
   /** The unit a bare number means whatever the channel's unit system, when that is unambiguous. */
   conventionalDefault?: Unit;
   /** What a bare number means under each declared unit system, when it depends on the system. */
-  systemUnits?: Record<UnitSystem, Unit>;
+  systemUnits?: Partial<Record<UnitSystem, Unit>>;
   formula?: Partial<Record<Element, number>>;
   /** g/mol, derived from `formula`. BUN is counted as its two nitrogen atoms (N2). */
   molarMass?: number;
@@ -163,7 +163,8 @@ export const ANALYTES: Record<AnalyteId, Analyte> = {
     label: "urea",
     canonicalUnit: "mmol/L",
     units: ["mmol/L", "mg/dL", "mg/L", "g/L"],
-    systemUnits: { si: "mmol/L", conventional: "mg/dL" },
+    // A bare "urea" under conventional units may mean BUN or urea itself: the reader asks.
+    systemUnits: { si: "mmol/L" },
     formula: { C: 1, H: 4, N: 2, O: 1 },
     molarMass: UREA_MM,
     loinc: [
@@ -192,7 +193,7 @@ export const ANALYTES: Record<AnalyteId, Analyte> = {
   measuredOsmolality: {
     id: "measuredOsmolality",
     name: "measured osmolality",
-    label: "osm",
+    label: "measured osm",
     canonicalUnit: "mOsm/kg",
     units: ["mOsm/kg", "mOsm/L"],
     conventionalDefault: "mOsm/kg",
