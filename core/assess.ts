@@ -263,7 +263,7 @@ function readGap(
     findings.push({
       code: "gap.raised",
       level: "warning",
-      text: `Osmolal gap${afterEthanol} ${fmt(g)} is raised (usual < ${GAP_LIMIT}; Hoffman 1993 found −2 ± 6; Krasowski 2012 used > 14).`,
+      text: `Osmolal gap${afterEthanol} ${fmt(g)} is raised: ${GAP_LIMIT} or more (the usual limit; Hoffman 1993 found −2 ± 6; Krasowski 2012 used > 14).`,
     });
     cautions.add("gapOtherCauses");
   }

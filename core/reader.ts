@@ -94,7 +94,7 @@ function isKnownWord(lower: string): boolean {
   );
 }
 
-const NUMBER = /^([<>≤≥]?)(\d{1,6}(?:[.,]\d{1,20})?|[.,]\d{1,20})$/;
+const NUMBER = /^([<>≤≥]?[-−]?)(\d{1,6}(?:[.,]\d{1,20})?|[.,]\d{1,20})$/;
 const NUMBER_THEN_REST = /^([<>≤≥]?\d{1,6}(?:[.,]\d{1,20})?)([^\d.,].*)$/;
 
 function unitOf(text: string): Unit | undefined {
@@ -113,13 +113,14 @@ interface ParsedNumber {
 function parseNumber(text: string): ParsedNumber | undefined {
   const m = NUMBER.exec(text);
   if (!m) return undefined;
-  const sign = m[1]!;
+  const sign = m[1]!.replace(/[-−]/, "");
+  const negative = /[-−]/.test(m[1]!);
   let body = m[2]!;
   // "1,200" could be twelve hundred or one point two: ask.
   const ambiguous = /^\d{1,3},\d{3}$/.test(body);
   body = body.replace(",", ".");
   return {
-    value: Number(body),
+    value: (negative ? -1 : 1) * Number(body),
     below: sign === "<" || sign === "≤",
     above: sign === ">" || sign === "≥",
     ambiguous,

@@ -27,3 +27,23 @@ describe("dependency boundaries", () => {
     }
   });
 });
+
+describe("bot and adapters", () => {
+  it("bot/ imports adapters only from its entry points", () => {
+    for (const file of sources("bot")) {
+      if (/bot\/(main|cli)\.ts$/.test(file)) continue;
+      for (const spec of imports(file)) expect(spec, file).not.toMatch(/adapters\//);
+    }
+  });
+
+  it("no adapter imports another adapter", () => {
+    for (const file of sources("adapters")) {
+      const own = file.split("/")[1];
+      for (const spec of imports(file)) {
+        const m = /^\.\.\/(\w+)\//.exec(spec);
+        if (m) expect(m[1], `${file} → ${spec}`).toBe(own);
+        expect(spec, file).not.toMatch(/adapters\/(?!$)/);
+      }
+    }
+  });
+});

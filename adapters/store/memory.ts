@@ -1,0 +1,77 @@
+/** The in-memory store: the embedded default for one process. Expiry is checked on read and swept. */
+import type { ChannelSettings, ShiftRecord, Store } from "../../bot/store.js";
+
+interface Timed<T> {
+  value: T;
+  expires: number;
+}
+
+export class MemoryStore implements Store {
+  readonly kind = "memory" as const;
+  private settings = new Map<string, ChannelSettings>();
+  private records = new Map<string, Timed<ShiftRecord>[]>();
+  private seen = new Map<string, number>();
+  private counters = new Map<string, Timed<number>>();
+  private sweeps = 0;
+
+  constructor(private readonly now: () => number = Date.now) {}
+
+  async getSettings(channel: string): Promise<ChannelSettings> {
+    return { ...(this.settings.get(channel) ?? {}) };
+  }
+
+  async setSettings(channel: string, settings: ChannelSettings): Promise<void> {
+    this.settings.set(channel, { ...settings });
+  }
+
+  async addRecord(record: ShiftRecord, ttlMs: number): Promise<void> {
+    const list = this.records.get(record.channel) ?? [];
+    list.push({ value: structuredClone(record), expires: record.at + ttlMs });
+    this.records.set(record.channel, list);
+  }
+
+  async listRecords(channel: string, now: number): Promise<ShiftRecord[]> {
+    const list = (this.records.get(channel) ?? []).filter((r) => r.expires > now);
+    if (list.length === 0) this.records.delete(channel);
+    else this.records.set(channel, list);
+    return list.map((r) => structuredClone(r.value)).sort((a, b) => a.at - b.at);
+  }
+
+  async forget(channel: string): Promise<number> {
+    const n = this.records.get(channel)?.length ?? 0;
+    this.records.delete(channel);
+    return n;
+  }
+
+  async firstSeen(key: string, ttlMs: number): Promise<boolean> {
+    const now = this.now();
+    this.sweep(now);
+    const until = this.seen.get(key);
+    if (until !== undefined && until > now) return false;
+    this.seen.set(key, now + ttlMs);
+    return true;
+  }
+
+  async hit(key: string, limit: number, windowMs: number): Promise<boolean> {
+    const now = this.now();
+    const window = Math.floor(now / windowMs);
+    const slot = `${key}:${window}`;
+    const counter = this.counters.get(slot);
+    const count = (counter && counter.expires > now ? counter.value : 0) + 1;
+    this.counters.set(slot, { value: count, expires: (window + 1) * windowMs });
+    return count <= limit;
+  }
+
+  async ready(): Promise<boolean> {
+    return true;
+  }
+
+  async close(): Promise<void> {}
+
+  /** Every few hundred calls, drop expired de-duplication keys and counters so memory stays flat. */
+  private sweep(now: number): void {
+    if (++this.sweeps % 256 !== 0) return;
+    for (const [k, until] of this.seen) if (until <= now) this.seen.delete(k);
+    for (const [k, c] of this.counters) if (c.expires <= now) this.counters.delete(k);
+  }
+}

@@ -1,0 +1,91 @@
+/** Builds the reply for a message with lab values: facts, interpretation, working, cautions. */
+import type { Assessment, Finding } from "../core/assess.js";
+import { fmt } from "../core/format.js";
+import type { Reading } from "../core/reader.js";
+import type { Result } from "../core/results.js";
+import { emptyReply, type Fact, type Reply } from "./reply.js";
+
+const LEVEL_ORDER = { critical: 0, warning: 1, info: 2 } as const;
+
+export function factsOf(a: Assessment): Fact[] {
+  const r = a.results;
+  const facts: Fact[] = [];
+  const add = (label: string, result: Result | undefined) =>
+    result && facts.push({ label, value: `${fmt(result.value)} ${result.unit}`, formula: result.formula });
+  add("Calculated osmolality", r.calculatedOsmolality);
+  add("Effective osmolality (tonicity)", r.effectiveOsmolality);
+  add("Osmolal gap", r.osmolalGap);
+  add("Anion gap", r.anionGap);
+  if (r.correctedSodium) {
+    facts.push({
+      label: "Sodium corrected for glucose",
+      value: `${fmt(r.correctedSodium.katz.value)} (Katz) · ${fmt(r.correctedSodium.hillier.value)} (Hillier) mmol/L`,
+      formula: "Na + 1.6 or 2.4 × (glucose mg/dL − 100) ÷ 100",
+    });
+  }
+  return facts;
+}
+
+export function workingOf(a: Assessment): string[] {
+  const r = a.results;
+  const main = [
+    r.calculatedOsmolality,
+    r.effectiveOsmolality,
+    r.osmolalGap,
+    r.anionGap,
+    r.correctedSodium?.katz,
+    r.correctedSodium?.hillier,
+  ];
+  return [...main.filter((x): x is Result => x !== undefined), ...a.alternatives].map(
+    (x) => `${x.label} [${x.formula}]: ${x.working} — ${x.source}`,
+  );
+}
+
+export function sortedFindings(a: Assessment): Finding[] {
+  return [...a.findings].sort((x, y) => LEVEL_ORDER[x.level] - LEVEL_ORDER[y.level]);
+}
+
+export function headlineOf(a: Assessment): string {
+  const r = a.results;
+  const parts: string[] = [];
+  if (r.calculatedOsmolality) parts.push(`calculated ${fmt(r.calculatedOsmolality.value)}`);
+  if (r.effectiveOsmolality) parts.push(`effective ${fmt(r.effectiveOsmolality.value)}`);
+  if (r.osmolalGap) parts.push(`gap ${fmt(r.osmolalGap.value)}`);
+  const osm = parts.length > 0 ? `Osmolality: ${parts.join(" · ")} mOsm/kg` : "";
+  if (osm) return osm;
+  if (r.correctedSodium)
+    return `Corrected sodium ${fmt(r.correctedSodium.katz.value)} (Katz) · ${fmt(r.correctedSodium.hillier.value)} (Hillier) mmol/L`;
+  if (r.anionGap) return `Anion gap ${fmt(r.anionGap.value)} mmol/L`;
+  const first = sortedFindings(a)[0];
+  return first ? first.text : "Read, but nothing could be calculated from these values";
+}
+
+export function computeReply(reading: Reading, a: Assessment, showWorking: boolean): Reply {
+  if (reading.values.length === 0) {
+    const reply = emptyReply("nothing", "No lab values found in that message");
+    reply.problems = reading.problems.map(({ code, message }) => ({ code, message }));
+    if (reply.problems.length === 0) {
+      reply.problems.push({
+        code: "input.empty",
+        message:
+          "Type values as you would write them, like: Na 128 glu 540 mg/dL urea 14 mmol/L osm 310. Type help for more.",
+      });
+    }
+    return reply;
+  }
+  const interpreting = Object.keys(a.results).length > 0 || a.findings.length > 0;
+  return {
+    kind: "result",
+    headline: headlineOf(a),
+    readAs: reading.echo + (reading.tag ? ` — case ${reading.tag}` : ""),
+    facts: factsOf(a),
+    interpretation: sortedFindings(a).map((f) => f.text),
+    working: workingOf(a),
+    problems: reading.problems.map(({ code, message }) => ({ code, message })),
+    notes: reading.notes,
+    cautions: interpreting ? a.cautions : [],
+    shareable: interpreting && reading.identifiers.length === 0,
+    showWorking,
+    data: { reading, assessment: a },
+  };
+}

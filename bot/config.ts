@@ -1,0 +1,160 @@
+/**
+ * Configuration from the environment, validated with zod. Every setting is listed in the README's
+ * configuration table; a bad value stops start-up with a message that names the setting.
+ */
+import { randomBytes } from "node:crypto";
+import { z } from "zod";
+
+const range = z
+  .string()
+  .regex(/^\d{3}\s*[-–]\s*\d{3}$/, "write it as low-high, e.g. 275-295")
+  .transform((s) => {
+    const [low, high] = s.split(/[-–]/).map((x) => Number(x.trim())) as [number, number];
+    return { low, high };
+  })
+  .refine((r) => r.low < r.high && r.low >= 250 && r.high <= 330, "low must be below high, within 250–330");
+
+const flag = z
+  .enum(["1", "0", "true", "false", "yes", "no", ""])
+  .optional()
+  .transform((v) => v === "1" || v === "true" || v === "yes");
+
+const EnvSchema = z.object({
+  NODE_ENV: z.string().optional(),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default("0.0.0.0"),
+  SOLUTE_SECRET: z.string().min(16, "must be at least 16 characters").optional(),
+  SOLUTE_SHIFT_HOURS: z.coerce.number().min(1).max(72).default(16),
+  SOLUTE_OSMOLALITY_RANGE: range.default({ low: 275, high: 295 }),
+  SOLUTE_DEFAULT_UNITS: z.enum(["si", "conventional"]).optional(),
+  SOLUTE_RATE_LIMIT: z.coerce.number().int().min(1).max(100000).default(120),
+  REDIS_URL: z.string().url("must be a redis:// URL").optional(),
+  // Slack
+  SLACK_BOT_TOKEN: z.string().startsWith("xoxb-", "must start with xoxb-").optional(),
+  SLACK_SIGNING_SECRET: z.string().min(8).optional(),
+  SLACK_APP_TOKEN: z.string().startsWith("xapp-", "must start with xapp-").optional(),
+  SLACK_API_URL: z.string().url().optional(),
+  SLACK_COMMAND: z
+    .string()
+    .regex(/^\/[a-z0-9_-]{1,31}$/, "must look like /solute")
+    .default("/solute"),
+  // Teams (Bot Framework)
+  MicrosoftAppId: z.string().optional(),
+  MicrosoftAppPassword: z.string().optional(),
+  MicrosoftAppType: z.enum(["MultiTenant", "SingleTenant", "UserAssignedMSI"]).optional(),
+  MicrosoftAppTenantId: z.string().optional(),
+  TEAMS_LOCAL: flag,
+});
+
+export interface SlackConfig {
+  botToken: string;
+  signingSecret?: string;
+  appToken?: string;
+  apiUrl?: string;
+  command: string;
+}
+
+export interface TeamsConfig {
+  appId?: string;
+  appPassword?: string;
+  appType?: "MultiTenant" | "SingleTenant" | "UserAssignedMSI";
+  tenantId?: string;
+  /** Authentication off, for trying it locally. Refused in production. */
+  local: boolean;
+}
+
+export interface Config {
+  production: boolean;
+  port: number;
+  host: string;
+  secret: string;
+  /** True when no SOLUTE_SECRET was given and one was made for this process. */
+  ephemeralSecret: boolean;
+  shiftMs: number;
+  osmolalityRange: { low: number; high: number };
+  defaultUnits?: "si" | "conventional";
+  rateLimitPerMinute: number;
+  redisUrl?: string;
+  slack?: SlackConfig;
+  teams?: TeamsConfig;
+}
+
+export class ConfigError extends Error {
+  override name = "ConfigError";
+}
+
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const parsed = EnvSchema.safeParse(
+    Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== "")),
+  );
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new ConfigError(`Solute cannot start; fix these settings:\n${lines.join("\n")}`);
+  }
+  const e = parsed.data;
+  const production = e.NODE_ENV === "production";
+  const problems: string[] = [];
+
+  let slack: SlackConfig | undefined;
+  if (e.SLACK_BOT_TOKEN || e.SLACK_SIGNING_SECRET || e.SLACK_APP_TOKEN) {
+    if (!e.SLACK_BOT_TOKEN) problems.push("  SLACK_BOT_TOKEN: required for Slack (xoxb-…)");
+    if (!e.SLACK_APP_TOKEN && !e.SLACK_SIGNING_SECRET) {
+      problems.push(
+        "  SLACK_SIGNING_SECRET: required for Slack over HTTP (or set SLACK_APP_TOKEN for Socket Mode)",
+      );
+    }
+    if (e.SLACK_BOT_TOKEN) {
+      slack = {
+        botToken: e.SLACK_BOT_TOKEN,
+        command: e.SLACK_COMMAND,
+        ...(e.SLACK_SIGNING_SECRET && { signingSecret: e.SLACK_SIGNING_SECRET }),
+        ...(e.SLACK_APP_TOKEN && { appToken: e.SLACK_APP_TOKEN }),
+        ...(e.SLACK_API_URL && { apiUrl: e.SLACK_API_URL }),
+      };
+    }
+  }
+
+  let teams: TeamsConfig | undefined;
+  if (e.MicrosoftAppId || e.TEAMS_LOCAL) {
+    if (e.TEAMS_LOCAL && production)
+      problems.push("  TEAMS_LOCAL: authentication cannot be turned off when NODE_ENV=production");
+    if (
+      e.MicrosoftAppId &&
+      !e.TEAMS_LOCAL &&
+      e.MicrosoftAppType !== "UserAssignedMSI" &&
+      !e.MicrosoftAppPassword
+    ) {
+      problems.push("  MicrosoftAppPassword: required with MicrosoftAppId");
+    }
+    if (e.MicrosoftAppType === "SingleTenant" && !e.MicrosoftAppTenantId)
+      problems.push("  MicrosoftAppTenantId: required for SingleTenant");
+    teams = {
+      local: e.TEAMS_LOCAL && !e.MicrosoftAppId,
+      ...(e.MicrosoftAppId && { appId: e.MicrosoftAppId }),
+      ...(e.MicrosoftAppPassword && { appPassword: e.MicrosoftAppPassword }),
+      ...(e.MicrosoftAppType && { appType: e.MicrosoftAppType }),
+      ...(e.MicrosoftAppTenantId && { tenantId: e.MicrosoftAppTenantId }),
+    };
+  }
+
+  if (e.REDIS_URL && !e.SOLUTE_SECRET)
+    problems.push("  SOLUTE_SECRET: required with REDIS_URL, so every replica hashes channels alike");
+  if (production && !e.SOLUTE_SECRET) problems.push("  SOLUTE_SECRET: required when NODE_ENV=production");
+  if (problems.length > 0)
+    throw new ConfigError(`Solute cannot start; fix these settings:\n${problems.join("\n")}`);
+
+  return {
+    production,
+    port: e.PORT,
+    host: e.HOST,
+    secret: e.SOLUTE_SECRET ?? randomBytes(32).toString("base64url"),
+    ephemeralSecret: !e.SOLUTE_SECRET,
+    shiftMs: e.SOLUTE_SHIFT_HOURS * 3_600_000,
+    osmolalityRange: e.SOLUTE_OSMOLALITY_RANGE,
+    rateLimitPerMinute: e.SOLUTE_RATE_LIMIT,
+    ...(e.SOLUTE_DEFAULT_UNITS && { defaultUnits: e.SOLUTE_DEFAULT_UNITS }),
+    ...(e.REDIS_URL && { redisUrl: e.REDIS_URL }),
+    ...(slack && { slack }),
+    ...(teams && { teams }),
+  };
+}

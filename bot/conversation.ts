@@ -1,0 +1,249 @@
+/**
+ * The conversation, shared by every chat platform: a request (text, channel, platform) goes in,
+ * a neutral reply comes out. Commands are the first word: help, units, check; anything else with
+ * lab values is a calculation. Calculations never depend on the store: if it fails, they still
+ * answer.
+ */
+import type { UnitSystem } from "../core/analytes.js";
+import { assess } from "../core/assess.js";
+import { fmt } from "../core/format.js";
+import { readMessage } from "../core/reader.js";
+import { checkClaims } from "./check.js";
+import { computeReply } from "./compute.js";
+import type { Config } from "./config.js";
+import { evaluateExpression } from "./expression.js";
+import { helpReply } from "./help.js";
+import { errorCode, log } from "./log.js";
+import { channelKey, type Platform } from "./privacy.js";
+import { emptyReply, type Reply } from "./reply.js";
+import type { ChannelSettings, Store } from "./store.js";
+
+export interface Request {
+  text: string;
+  /** The platform's channel (or conversation) ID; hashed before it reaches the store. */
+  channel: string;
+  platform: Platform;
+}
+
+export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits">;
+
+export interface Context {
+  request: Request;
+  /** HMAC of the channel. */
+  channel: string;
+  settings: ChannelSettings;
+  unitSystem?: UnitSystem;
+  /** The text after the command word. */
+  rest: string;
+  showWorking: boolean;
+}
+
+export type CommandHandler = (ctx: Context, bot: Conversation) => Promise<Reply>;
+
+/** Longest message read; anything longer is refused before reading. */
+export const MAX_MESSAGE_LENGTH = 4000;
+
+export class Conversation {
+  private readonly commands = new Map<string, CommandHandler>();
+
+  constructor(
+    readonly store: Store,
+    readonly config: BotConfig,
+    readonly clock: () => number = Date.now,
+  ) {
+    this.command(["help", "?", "hello", "hi"], async () => helpReply());
+    this.command(["units", "unit"], (ctx) => this.units(ctx));
+    this.command(["check", "verify"], async (ctx) => this.check(ctx));
+  }
+
+  /** Registers a command under one or more first words. */
+  command(words: string[], handler: CommandHandler): void {
+    for (const w of words) this.commands.set(w, handler);
+  }
+
+  async handle(request: Request): Promise<Reply> {
+    const started = performance.now();
+    const text = request.text.trim();
+    if (text.length > MAX_MESSAGE_LENGTH) {
+      const reply = emptyReply("nothing", "That message is too long");
+      reply.problems.push({
+        code: "input.tooLong",
+        message: `Send at most ${MAX_MESSAGE_LENGTH} characters: just the lab values.`,
+      });
+      return reply;
+    }
+    const channel = channelKey(this.config.secret, request.platform, request.channel);
+    const settings = await this.settingsFor(channel);
+    const working = /(^|\s)(working|--working|show working)(\s|$)/i;
+    const showWorking = working.test(text);
+    const cleaned = text.replace(/(^|\s)(show working|--working|working)(?=\s|$)/gi, " ").trim();
+    const first = cleaned.split(/\s+/)[0] ?? "";
+    const handler = this.commands.get(first.toLowerCase());
+    const ctx: Context = {
+      request,
+      channel,
+      settings,
+      rest: handler ? cleaned.slice(first.length).trim() : cleaned,
+      showWorking,
+      ...((settings.unitSystem ?? this.config.defaultUnits) && {
+        unitSystem: settings.unitSystem ?? this.config.defaultUnits,
+      }),
+    };
+    const reply = handler ? await handler(ctx, this) : await this.calculate(ctx);
+    log("info", "reply", {
+      platform: request.platform,
+      code: reply.kind,
+      ms: performance.now() - started,
+      count: reply.problems.length,
+    });
+    return reply;
+  }
+
+  /** The default: read the values and compute everything that can be computed. */
+  async calculate(ctx: Context): Promise<Reply> {
+    const reading = readMessage(ctx.rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
+    const assessment = assess(reading.inputs, { osmolalityRange: this.config.osmolalityRange });
+    const reply = computeReply(reading, assessment, ctx.showWorking);
+    for (const hook of this.afterCalculation) await hook(ctx, reply);
+    return reply;
+  }
+
+  /** Called after every calculation (the shift log hooks in here). */
+  readonly afterCalculation: ((ctx: Context, reply: Reply) => Promise<void>)[] = [];
+
+  private async settingsFor(channel: string): Promise<ChannelSettings> {
+    try {
+      return await this.store.getSettings(channel);
+    } catch (error) {
+      log("warn", "store.settings-unavailable", { code: errorCode(error) });
+      return {};
+    }
+  }
+
+  private async units(ctx: Context): Promise<Reply> {
+    const word = ctx.rest.toLowerCase().split(/\s+/)[0] ?? "";
+    const choice: UnitSystem | "none" | undefined = ["si", "mmol", "mmol/l"].includes(word)
+      ? "si"
+      : ["conventional", "us", "mg", "mg/dl"].includes(word)
+        ? "conventional"
+        : ["none", "clear", "off"].includes(word)
+          ? "none"
+          : undefined;
+    const describe = (u: UnitSystem | undefined) =>
+      u === "si"
+        ? "SI: a bare glucose, urea or alcohol is read in mmol/L, albumin in g/L"
+        : u === "conventional"
+          ? "conventional: a bare glucose or alcohol is read in mg/dL, albumin in g/dL (a bare urea is still asked about: BUN or urea?)"
+          : "none: a bare glucose, urea, alcohol or albumin is asked about";
+    if (!word || choice === undefined) {
+      const reply = emptyReply(
+        "settings",
+        `This channel's units: ${describe(ctx.settings.unitSystem ?? this.config.defaultUnits)}`,
+      );
+      reply.notes.push(
+        "Set them with: units si, units conventional, or units none. Na, K, Cl, HCO3 (mmol/L), osmolality (mOsm/kg) and BUN (mg/dL) never need it.",
+      );
+      if (word && choice === undefined)
+        reply.problems.push({ code: "units.unknown", message: "Units can be si, conventional or none." });
+      return reply;
+    }
+    const next: ChannelSettings = { ...ctx.settings };
+    if (choice === "none") delete next.unitSystem;
+    else next.unitSystem = choice;
+    try {
+      await this.store.setSettings(ctx.channel, next);
+    } catch (error) {
+      log("warn", "store.settings-unsaved", { code: errorCode(error) });
+      const reply = emptyReply("settings", "The units could not be saved just now");
+      reply.problems.push({
+        code: "store.unavailable",
+        message:
+          "The settings store is not answering; try again shortly. Calculations still work with units written out.",
+      });
+      return reply;
+    }
+    const reply = emptyReply(
+      "settings",
+      `Units for this channel set to ${describe(choice === "none" ? undefined : choice)}.`,
+    );
+    reply.shareable = true;
+    return reply;
+  }
+
+  private async check(ctx: Context): Promise<Reply> {
+    // A colleague's own arithmetic: evaluate it in the sandbox and put its value where it stood.
+    const notes: string[] = [];
+    const problems: { code: string; message: string }[] = [];
+    let text = ctx.rest;
+    const expression = findExpression(text);
+    if (expression) {
+      const evaluated = evaluateExpression(expression.text);
+      if (!evaluated.ok) {
+        problems.push({ code: "expression.refused", message: evaluated.reason });
+        text = `${text.slice(0, expression.start)} ${text.slice(expression.end)}`;
+      } else {
+        const claimed = expression.claimed;
+        if (claimed !== undefined && Math.abs(claimed - evaluated.value) > 0.5) {
+          notes.push(`Arithmetic: ${evaluated.text} is ${fmt(evaluated.value)}, not ${fmt(claimed)}.`);
+        } else {
+          notes.push(`Arithmetic: ${evaluated.text} = ${fmt(evaluated.value)}.`);
+        }
+        const before = text.slice(0, expression.start);
+        const labelled =
+          /(calc(ulated)?\s+osm\w*|gap|osmolal\s+gap|osm\s+gap|eff(ective)?\s+osm\w*|tonicity|corr(ected)?\s+(na|sodium)|anion\s+gap|ag|og)\s*$/i.test(
+            before.trimEnd(),
+          );
+        const value = Number(evaluated.value.toFixed(6));
+        text = `${before} ${labelled ? "" : "calc osm "}${value} ${text.slice(expression.end)}`;
+      }
+    }
+    const reading = readMessage(text, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
+    const assessment = assess(reading.inputs, { osmolalityRange: this.config.osmolalityRange });
+    const base = computeReply(reading, assessment, ctx.showWorking);
+    if (reading.claims.length === 0) {
+      const reply = emptyReply("check", "Nothing to check");
+      reply.problems.push(...problems, {
+        code: "check.noClaim",
+        message:
+          "Add the result to check, like: check Na 128 glu 540 mg/dL urea 14 mmol/L calc osm 300 — or the arithmetic itself: check Na 128 glu 540 mg/dL urea 14 mmol/L 2*128 + 540/18 + 14",
+      });
+      reply.problems.push(...base.problems);
+      return reply;
+    }
+    const verdicts = checkClaims(reading, assessment);
+    const allHold = verdicts.every((v) => v.holds);
+    return {
+      ...base,
+      kind: "check",
+      headline: allHold ? "Check: the result holds" : "Check: the result does not hold",
+      interpretation: [...verdicts.map((v) => v.text), ...base.interpretation],
+      problems: [...problems, ...base.problems],
+      notes: [...notes, ...base.notes],
+      cautions: base.cautions.length > 0 ? base.cautions : assessment.cautions,
+    };
+  }
+}
+
+/** The first run of arithmetic in a message: numbers joined by operators, with an optional "= N". */
+export function findExpression(
+  text: string,
+): { text: string; start: number; end: number; claimed?: number } | undefined {
+  const run = /[\d.,()+\-*/×÷−^\s]{3,400}/g;
+  for (let m = run.exec(text); m; m = run.exec(text)) {
+    // The expression starts at the first number (or bracket) that an operator follows; a lone
+    // number before it belongs to a name ("urea 14 2*128 + …").
+    const begin = /\(*\s*\d[\d.,]*\s*[+\-*/×÷−^]\s*[\d(]/.exec(m[0]);
+    if (!begin) continue;
+    const expr = m[0].slice(begin.index).trimEnd();
+    const start = m.index + begin.index;
+    let end = start + expr.length;
+    let claimed: number | undefined;
+    const after = /^\s*=\s*(\d{1,6}(?:[.,]\d{1,6})?)/.exec(text.slice(end));
+    if (after) {
+      claimed = Number(after[1]!.replace(",", "."));
+      end += after[0].length;
+    }
+    return { text: expr.trim(), start, end, ...(claimed !== undefined && { claimed }) };
+  }
+  return undefined;
+}

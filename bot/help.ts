@@ -1,0 +1,24 @@
+/** The help reply: what Solute does, its commands, short examples from an invented night. */
+import { CAUTIONS } from "../core/cautions.js";
+import { emptyReply, type Reply } from "./reply.js";
+
+export const HELP_LINES = [
+  "Type lab values the way you write them; Solute answers with the calculated and effective osmolality, the osmolal gap, the corrected sodium and what they suggest, with every formula named.",
+  "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310 — a calculation.",
+  "bed 12 Na 121 K 3.4 glu 6.2 mmol/L urea 3.1 mmol/L osm 254 — the same, tagged to a bed for the shift's handover (a bed or bay code only, never a name or number from the record).",
+  "… working — add the word working to see every step.",
+  "check Na 131 glu 22 mmol/L urea 9 mmol/L calc osm 300 — checks a colleague's result and names the slip if it does not hold.",
+  "check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 — checks the arithmetic itself.",
+  "units si · units conventional · units none — how this channel's bare glucose, urea and alcohol values are read. Units written in the message always win.",
+];
+
+export function helpReply(extra: string[] = []): Reply {
+  const reply = emptyReply(
+    "help",
+    "Solute: osmolality, osmolal gap, tonicity and corrected sodium from the labs you type",
+  );
+  reply.interpretation = [...HELP_LINES, ...extra];
+  reply.notes = ["Never type a name, a record number or a date of birth: tag cases by bed or bay."];
+  reply.cautions = [CAUTIONS.general];
+  return reply;
+}

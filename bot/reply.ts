@@ -1,0 +1,67 @@
+/**
+ * The neutral reply model every adapter renders in its own format (plain text, Block Kit, Adaptive
+ * Card). It carries numbers already formatted for reading; the exact values travel in `data`.
+ */
+import type { Assessment } from "../core/assess.js";
+import type { Reading } from "../core/reader.js";
+
+export type ReplyKind =
+  | "result"
+  | "check"
+  | "help"
+  | "settings"
+  | "handover"
+  | "trend"
+  | "plan"
+  | "forget"
+  | "nothing";
+
+export interface Fact {
+  label: string;
+  /** Formatted value with unit, e.g. "300.0 mOsm/kg". */
+  value: string;
+  /** The formula's name, e.g. "2·Na + glucose + urea". */
+  formula?: string;
+}
+
+export interface ReplyProblem {
+  code: string;
+  message: string;
+}
+
+export interface Reply {
+  kind: ReplyKind;
+  headline: string;
+  /** How the message was read ("Na 128 mmol/L, glucose 540 mg/dL = 29.97 mmol/L, …"). */
+  readAs?: string;
+  facts: Fact[];
+  interpretation: string[];
+  /** Step-by-step working, shown on request (a button, a show-card, or the word "working"). */
+  working: string[];
+  problems: ReplyProblem[];
+  /** Notes on how something was read or done; not problems, not interpretation. */
+  notes: string[];
+  /** Every interpreting reply ends with these. */
+  cautions: string[];
+  /** Whether the reply may be posted for the whole channel (help and problems stay private). */
+  shareable: boolean;
+  /** Whether the working should be shown inline (the user asked for it). */
+  showWorking: boolean;
+  /** The machine-readable result, for the one-shot command's JSON and the shift log. */
+  data?: { reading: Reading; assessment: Assessment };
+}
+
+export function emptyReply(kind: ReplyKind, headline: string): Reply {
+  return {
+    kind,
+    headline,
+    facts: [],
+    interpretation: [],
+    working: [],
+    problems: [],
+    notes: [],
+    cautions: [],
+    shareable: false,
+    showWorking: false,
+  };
+}

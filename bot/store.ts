@@ -1,0 +1,53 @@
+/**
+ * The store port. Two adapters implement it: in memory (the embedded default) and Redis (shared by
+ * every replica). It holds channel settings, the shift log, the de-duplication of retried chat
+ * events and rate-limit counters — never message text, names or user IDs. Channels are known only
+ * by an HMAC of their platform ID (see privacy.ts).
+ */
+import type { UnitSystem } from "../core/analytes.js";
+import type { LabInputs } from "../core/inputs.js";
+
+export interface ChannelSettings {
+  unitSystem?: UnitSystem;
+}
+
+/** One calculation in the shift log: numbers, a checked case tag, a time. Nothing else. */
+export interface ShiftRecord {
+  /** HMAC of the channel key. */
+  channel: string;
+  /** A bed or bay code that passed the privacy guard. */
+  tag: string;
+  /** Milliseconds since the epoch. */
+  at: number;
+  inputs: LabInputs;
+  results: Partial<Record<ResultKey, number>>;
+  /** Finding codes worth handing over (e.g. "gap.raised", "critical.sodium.low"). */
+  flags: string[];
+}
+
+export type ResultKey =
+  | "calculatedOsmolality"
+  | "effectiveOsmolality"
+  | "osmolalGap"
+  | "anionGap"
+  | "correctedSodiumKatz"
+  | "correctedSodiumHillier";
+
+export interface Store {
+  readonly kind: "memory" | "redis";
+  getSettings(channel: string): Promise<ChannelSettings>;
+  setSettings(channel: string, settings: ChannelSettings): Promise<void>;
+  /** Adds a record that expires `ttlMs` after its time. */
+  addRecord(record: ShiftRecord, ttlMs: number): Promise<void>;
+  /** The channel's unexpired records, oldest first. */
+  listRecords(channel: string, now: number): Promise<ShiftRecord[]>;
+  /** Clears the channel's shift log at once; returns how many records went. */
+  forget(channel: string): Promise<number>;
+  /** True the first time `key` is seen within `ttlMs` — de-duplicates retried deliveries. */
+  firstSeen(key: string, ttlMs: number): Promise<boolean>;
+  /** Counts a hit on `key` in a fixed window; true while the count is within `limit`. */
+  hit(key: string, limit: number, windowMs: number): Promise<boolean>;
+  /** Whether the store answers right now. */
+  ready(): Promise<boolean>;
+  close(): Promise<void>;
+}

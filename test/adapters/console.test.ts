@@ -1,0 +1,100 @@
+import { describe, expect, it } from "vitest";
+import type { JsonReply } from "../../bot/json.js";
+import { CAUTIONS } from "../../core/cautions.js";
+import { cleanEnv, run, solute } from "../helpers/spawn.js";
+
+describe.concurrent("the one-shot command", () => {
+  it("prints the JSON contract for the README's example", async () => {
+    const r = await solute(["--json", "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"]);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout) as JsonReply;
+    expect(j.inputs).toEqual({
+      sodium: { value: 128, unit: "mmol/L" },
+      glucose: { value: expect.closeTo(29.974, 3), unit: "mmol/L" },
+      urea: { value: 14, unit: "mmol/L" },
+      measuredOsmolality: { value: 310, unit: "mOsm/kg" },
+    });
+    // Full precision, not rounded (REFERENCES.md §1 and §6 arithmetic [D]).
+    expect(j.results.calculatedOsmolality!.value).toBeCloseTo(270 + 540 / 18.0156, 9);
+    expect(j.results.calculatedOsmolality).toMatchObject({
+      unit: "mOsm/kg",
+      formula: "2·Na + glucose + urea",
+    });
+    expect(j.results.effectiveOsmolality!.value).toBeCloseTo(256 + 540 / 18.0156, 9);
+    expect(j.results.osmolalGap!.value).toBeCloseTo(310 - 270 - 540 / 18.0156, 9);
+    expect(j.results.correctedSodium!.katz).toMatchObject({
+      value: expect.closeTo(135.04, 6),
+      unit: "mmol/L",
+    });
+    expect(j.results.correctedSodium!.hillier).toMatchObject({
+      value: expect.closeTo(138.56, 6),
+      unit: "mmol/L",
+    });
+    expect(j.results.anionGap).toBeUndefined();
+    expect(j.problems).toEqual([]);
+    expect(j.cautions.at(-1)).toBe(CAUTIONS.general);
+  });
+
+  it("with ethanol, the calculated osmolality counts it and the gap is what is left", async () => {
+    const r = await solute(["--json", "Na 140 glu 5 mmol/L urea 5 mmol/L EtOH 46.07 mg/dL osm 310"]);
+    const j = JSON.parse(r.stdout) as JsonReply;
+    expect(j.inputs.ethanol!.value).toBeCloseTo(10, 2);
+    expect(j.results.calculatedOsmolality!.value).toBeCloseTo(300, 2);
+    expect(j.results.osmolalGap!.value).toBeCloseTo(10, 2);
+  });
+
+  it("exits 2 when nothing can be computed, and says why", async () => {
+    const r = await solute(["--json", "glucose 30"]);
+    expect(r.code).toBe(2);
+    expect((JSON.parse(r.stdout) as JsonReply).problems[0]!.code).toBe("unit.ambiguous");
+  });
+
+  it("--units resolves bare values", async () => {
+    const r = await solute(["--json", "--units", "si", "Na 130 glucose 30 urea 10"]);
+    expect(r.code).toBe(0);
+    expect((JSON.parse(r.stdout) as JsonReply).inputs.glucose!.value).toBe(30);
+    expect((await solute(["--units", "furlongs", "Na 130"])).code).toBe(1);
+  });
+
+  it("plain text without --json", async () => {
+    const r = await solute(["Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"]);
+    expect(r.stdout).toMatch(/^Osmolality: calculated 300\.0 · effective 286\.0 · gap 10\.0 mOsm\/kg/);
+    expect(r.stdout).toContain(CAUTIONS.general);
+  });
+
+  it("never echoes an identifier, on stdout or stderr", async () => {
+    const r = await solute([
+      "--json",
+      "Mrs Fairweather MRN 8812044 DOB 1/2/1961 Na 128 glu 6 mmol/L urea 4 mmol/L",
+    ]);
+    expect(r.code).toBe(0);
+    for (const secret of ["Fairweather", "8812044", "1961"]) {
+      expect(r.stdout).not.toContain(secret);
+      expect(r.stderr).not.toContain(secret);
+    }
+    expect((JSON.parse(r.stdout) as JsonReply).problems.map((p) => p.code)).toContain("privacy.identifier");
+  });
+
+  it("runs as the README says: npm run -s solute", async () => {
+    const r = await run("npm", ["run", "-s", "solute", "--", "--json", "Na 140 glu 5 mmol/L urea 5 mmol/L"]);
+    expect(r.code).toBe(0);
+    expect((JSON.parse(r.stdout) as JsonReply).results.calculatedOsmolality!.value).toBe(290);
+  });
+});
+
+describe("the terminal chat", () => {
+  it("answers lines typed on stdin, shows the working, and quits", async () => {
+    const r = await run(process.execPath, ["--import", "tsx", "bot/main.ts"], {
+      input:
+        "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310\nworking\nunits si\nglucose 30 Na 140 urea 5\nquit\n",
+      env: cleanEnv(),
+    });
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
+    expect(r.stdout).toContain("Working:");
+    expect(r.stdout).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+    expect(r.stdout).toContain("Units for this channel set to SI");
+    expect(r.stdout).toContain("Osmolality: calculated 315.0 · effective 310.0 mOsm/kg");
+    expect(r.stderr).toBe("");
+  });
+});
