@@ -4,12 +4,13 @@
  */
 import { startConsole } from "../adapters/console/app.js";
 import { MemoryStore } from "../adapters/store/memory.js";
-import { ConfigError, loadConfig } from "./config.js";
+import { type Config, ConfigError, loadConfig } from "./config.js";
 import { Conversation } from "./conversation.js";
 import { log, setQuiet } from "./log.js";
+import { startPlatforms } from "./platforms.js";
 
 async function main(): Promise<void> {
-  let config: ReturnType<typeof loadConfig>;
+  let config: Config;
   try {
     config = loadConfig();
   } catch (e) {
@@ -19,13 +20,22 @@ async function main(): Promise<void> {
     }
     throw e;
   }
-  const store = new MemoryStore();
-  const bot = new Conversation(store, config);
-
-  setQuiet(true);
-  await startConsole(bot, process.stdin, process.stdout);
-  await store.close();
-  log("info", "stopped");
+  if (!config.slack && !config.teams) {
+    const store = new MemoryStore();
+    setQuiet(true);
+    await startConsole(new Conversation(store, config), process.stdin, process.stdout);
+    await store.close();
+    return;
+  }
+  if (config.ephemeralSecret) log("warn", "config.ephemeral-secret");
+  const running = await startPlatforms(config);
+  const shutdown = async (signal: string) => {
+    log("info", "stopping", { code: signal });
+    await running.stop();
+    process.exit(0);
+  };
+  process.once("SIGTERM", () => void shutdown("SIGTERM"));
+  process.once("SIGINT", () => void shutdown("SIGINT"));
 }
 
 await main();

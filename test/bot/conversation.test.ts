@@ -248,8 +248,18 @@ describe("logs", () => {
     }
     expect(lines.length).toBe(3);
     const all = lines.join("\n");
-    for (const secret of ["Quigley", "4410923", "128", "C-SECRET-CHANNEL", "glu", "calc"]) expect(all).not.toContain(secret);
-    for (const line of lines) expect(Object.keys(JSON.parse(line)).sort()).toEqual(["code", "count", "event", "level", "ms", "platform", "t"]);
+    for (const secret of ["Quigley", "4410923", "128", "C-SECRET-CHANNEL", "glu", "calc"])
+      expect(all).not.toContain(secret);
+    for (const line of lines)
+      expect(Object.keys(JSON.parse(line)).sort()).toEqual([
+        "code",
+        "count",
+        "event",
+        "level",
+        "ms",
+        "platform",
+        "t",
+      ]);
   });
 
   it("drops anything that is not a short code", async () => {

@@ -1,0 +1,39 @@
+/** Wires the chat platforms, the store and the HTTP server together for `npm start`. */
+import { createSlackAdapter } from "../adapters/slack/app.js";
+import { MemoryStore } from "../adapters/store/memory.js";
+import type { Config } from "./config.js";
+import { Conversation } from "./conversation.js";
+import { log } from "./log.js";
+import { type Handler, startServer } from "./server.js";
+
+export interface Running {
+  port?: number;
+  stop(): Promise<void>;
+}
+
+/** Starts the chat platforms the configuration names; resolves once they are ready. */
+export async function startPlatforms(config: Config): Promise<Running> {
+  const store = new MemoryStore();
+  const bot = new Conversation(store, config);
+  const routes: Record<string, Handler> = {};
+  const stops: (() => Promise<void>)[] = [];
+
+  if (config.slack) {
+    const slack = createSlackAdapter({ config: config.slack, bot });
+    if (slack.handler) routes["/slack/events"] = slack.handler;
+    await slack.start();
+    stops.push(() => slack.stop());
+    log("info", config.slack.appToken ? "slack.socket-mode" : "slack.http", { platform: "slack" });
+  }
+
+  const server = await startServer({ port: config.port, host: config.host, routes, store });
+  log("info", "ready", { count: server.port });
+  return {
+    port: server.port,
+    stop: async () => {
+      await server.close();
+      for (const stop of stops) await stop();
+      await store.close();
+    },
+  };
+}

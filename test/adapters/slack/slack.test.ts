@@ -1,0 +1,279 @@
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { createSlackAdapter, type SlackAdapter } from "../../../adapters/slack/app.js";
+import { checkBlocks } from "../../../adapters/slack/limits.js";
+import { MemoryStore } from "../../../adapters/store/memory.js";
+import { loadConfig } from "../../../bot/config.js";
+import { Conversation } from "../../../bot/conversation.js";
+import { setLogSink } from "../../../bot/log.js";
+import { type HttpServer, startServer } from "../../../bot/server.js";
+import { CAUTIONS } from "../../../core/cautions.js";
+import { fixture } from "../../helpers/fixtures.js";
+import { BOT_USER_ID, type FakeSlack, fakeSlack, form, postSigned } from "../../helpers/slack.js";
+
+const SECRET = "slack-signing-secret-for-tests";
+const PANEL = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
+const logs: string[] = [];
+
+let api: FakeSlack;
+let server: HttpServer;
+let adapter: SlackAdapter;
+let store: MemoryStore;
+let url: string;
+
+beforeAll(() => setLogSink((l) => logs.push(l)));
+afterAll(() => setLogSink((l) => process.stderr.write(`${l}\n`)));
+
+beforeEach(async () => {
+  api = await fakeSlack();
+  store = new MemoryStore();
+  const config = loadConfig({
+    SOLUTE_SECRET: "solute-secret-0123456789",
+    SLACK_BOT_TOKEN: "xoxb-test",
+    SLACK_SIGNING_SECRET: SECRET,
+    SLACK_API_URL: `${api.url}/api/`,
+  });
+  const bot = new Conversation(store, config);
+  // The real Bolt app; it verifies its token with auth.test against the fake API.
+  adapter = createSlackAdapter({ config: config.slack!, bot });
+  server = await startServer({
+    port: 0,
+    host: "127.0.0.1",
+    routes: { "/slack/events": adapter.handler! },
+    store,
+  });
+  url = `http://127.0.0.1:${server.port}/slack/events`;
+});
+
+afterEach(async () => {
+  await server.close();
+  await adapter.stop();
+  await api.close();
+});
+
+/** The recorded slash command, with the text swapped for lab values and response_url pointed here. */
+function slash(text: string): string {
+  const p = {
+    ...fixture("slash-commands-slack.json").slashCommandWithArgs,
+    command: "/solute",
+    text,
+    response_url: `${api.url}/respond/1`,
+  };
+  return form(p);
+}
+
+function mention(text: string, extra: Record<string, unknown> = {}) {
+  const recorded = fixture("channel-mention-slack.json").mention;
+  return {
+    ...recorded,
+    event_id: `Ev${Math.random().toString(36).slice(2)}`,
+    event_time: 1,
+    event: { ...recorded.event, type: "app_mention", text: `<@${BOT_USER_ID}> ${text}`, ...extra },
+  };
+}
+
+describe("slash command", () => {
+  it("acks at once, then answers privately with a button to post to the channel", async () => {
+    const res = await postSigned(url, SECRET, slash(PANEL), "application/x-www-form-urlencoded");
+    expect(res.status).toBe(200);
+    expect(res.ms).toBeLessThan(3000);
+    const [call] = (await api.waitFor((c) => c.some((x) => x.path === "/respond/1"))).filter(
+      (c) => c.path === "/respond/1",
+    );
+    expect(call!.body.response_type).toBe("ephemeral");
+    expect(call!.body.text).toContain("Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
+    const blocks = call!.body.blocks as Parameters<typeof checkBlocks>[0];
+    expect(checkBlocks(blocks)).toEqual([]);
+    expect(JSON.stringify(blocks)).toContain("solute_post");
+    expect(JSON.stringify(blocks)).toContain("solute_working");
+    const last = blocks.at(-1)!;
+    expect(last.type).toBe("context");
+    expect(JSON.stringify(last)).toContain(CAUTIONS.general.slice(0, 40));
+  });
+
+  it("help and problems stay private, without a post button", async () => {
+    await postSigned(url, SECRET, slash("help"), "application/x-www-form-urlencoded");
+    await postSigned(url, SECRET, slash("glucose 30"), "application/x-www-form-urlencoded");
+    const calls = (await api.waitFor((c) => c.filter((x) => x.path === "/respond/1").length === 2)).filter(
+      (c) => c.path === "/respond/1",
+    );
+    for (const c of calls) {
+      expect(c.body.response_type).toBe("ephemeral");
+      expect(JSON.stringify(c.body.blocks)).not.toContain("solute_post");
+    }
+  });
+
+  it("the post-to-channel button posts the answer for the team and removes the private one", async () => {
+    const payload = {
+      type: "block_actions",
+      team: { id: "T00FAKE00BB", domain: "acme" },
+      user: { id: "U00FAKEUSER2" },
+      api_app_id: "A00FAKEAPP03",
+      token: "x",
+      trigger_id: "1.2.3",
+      channel: { id: "C00FAKECHAN3", name: "night" },
+      container: { type: "message", message_ts: "1.1", channel_id: "C00FAKECHAN3", is_ephemeral: true },
+      response_url: `${api.url}/respond/2`,
+      actions: [{ type: "button", action_id: "solute_post", block_id: "b", value: PANEL, action_ts: "1" }],
+    };
+    const res = await postSigned(
+      url,
+      SECRET,
+      form({ payload: JSON.stringify(payload) }),
+      "application/x-www-form-urlencoded",
+    );
+    expect(res.status).toBe(200);
+    const calls = (await api.waitFor((c) => c.filter((x) => x.path === "/respond/2").length === 2)).filter(
+      (c) => c.path === "/respond/2",
+    );
+    expect(calls[0]!.body.response_type).toBe("in_channel");
+    expect(calls[0]!.body.text).toContain("gap 10.0");
+    expect(calls[1]!.body.delete_original).toBe(true);
+  });
+});
+
+describe("mentions and direct messages", () => {
+  it("a mention is answered in the thread of that message, with the mention stripped", async () => {
+    const body = mention(PANEL);
+    const res = await postSigned(url, SECRET, JSON.stringify(body), "application/json");
+    expect(res.status).toBe(200);
+    const post = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
+      (c) => c.path === "/api/chat.postMessage",
+    )!;
+    expect(post.body.channel).toBe(body.event.channel);
+    expect(post.body.thread_ts).toBe(body.event.ts);
+    expect(post.body.text).toContain("calculated 300.0");
+    expect(post.body.text).not.toContain("not understood");
+    expect(checkBlocks(post.body.blocks as never)).toEqual([]);
+  });
+
+  it("a mention inside a thread answers in that thread", async () => {
+    const body = mention(PANEL, { thread_ts: "1773320000.000100" });
+    await postSigned(url, SECRET, JSON.stringify(body), "application/json");
+    const post = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
+      (c) => c.path === "/api/chat.postMessage",
+    )!;
+    expect(post.body.thread_ts).toBe("1773320000.000100");
+  });
+
+  it("a direct message is answered in the DM (recorded payload)", async () => {
+    const recorded = fixture("dm-slack.json").dmMessage;
+    const body = { ...recorded, event_id: "EvDM1", event: { ...recorded.event, text: PANEL } };
+    await postSigned(url, SECRET, JSON.stringify(body), "application/json");
+    const post = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
+      (c) => c.path === "/api/chat.postMessage",
+    )!;
+    expect(post.body.channel).toBe(recorded.event.channel);
+    expect(post.body.thread_ts).toBeUndefined();
+    expect(post.body.text).toContain("calculated 300.0");
+  });
+
+  it("ignores its own and other bots' messages", async () => {
+    const recorded = fixture("dm-slack.json").dmMessage;
+    const body = {
+      ...recorded,
+      event_id: "EvBOT",
+      event: { ...recorded.event, text: PANEL, bot_id: "B1", subtype: "bot_message" },
+    };
+    await postSigned(url, SECRET, JSON.stringify(body), "application/json");
+    await new Promise((r) => setTimeout(r, 200));
+    expect(api.calls.filter((c) => c.path === "/api/chat.postMessage")).toHaveLength(0);
+  });
+
+  it("a retried delivery produces exactly one reply", async () => {
+    const body = JSON.stringify(mention(PANEL));
+    await postSigned(url, SECRET, body, "application/json");
+    const retry = await postSigned(url, SECRET, body, "application/json", {
+      headers: { "x-slack-retry-num": "1", "x-slack-retry-reason": "http_timeout" },
+    });
+    expect(retry.status).toBe(200);
+    await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"));
+    await new Promise((r) => setTimeout(r, 300));
+    expect(api.calls.filter((c) => c.path === "/api/chat.postMessage")).toHaveLength(1);
+  });
+
+  it("a show-working press posts the working in the thread", async () => {
+    const payload = {
+      type: "block_actions",
+      team: { id: "T00FAKE00AA" },
+      user: { id: "U00FAKEUSER1" },
+      api_app_id: "A00FAKEAPP01",
+      token: "x",
+      trigger_id: "1.2.3",
+      channel: { id: "C00FAKECHAN1" },
+      container: {
+        type: "message",
+        message_ts: "1773327463.700000",
+        thread_ts: "1773327463.619929",
+        channel_id: "C00FAKECHAN1",
+        is_ephemeral: false,
+      },
+      response_url: `${api.url}/respond/3`,
+      actions: [{ type: "button", action_id: "solute_working", block_id: "b", value: PANEL, action_ts: "1" }],
+    };
+    await postSigned(
+      url,
+      SECRET,
+      form({ payload: JSON.stringify(payload) }),
+      "application/x-www-form-urlencoded",
+    );
+    const post = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
+      (c) => c.path === "/api/chat.postMessage",
+    )!;
+    expect(post.body.thread_ts).toBe("1773327463.619929");
+    expect(post.body.text).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+  });
+});
+
+describe("request verification", () => {
+  it.each([
+    ["a wrong signature", { badSignature: true }],
+    ["a timestamp 10 minutes old", { timestamp: Math.floor(Date.now() / 1000) - 600 }],
+    ["a timestamp 10 minutes in the future", { timestamp: Math.floor(Date.now() / 1000) + 600 }],
+  ])("%s → 401 and nothing processed", async (_, options) => {
+    const res = await postSigned(url, SECRET, JSON.stringify(mention(PANEL)), "application/json", options);
+    expect(res.status).toBe(401);
+    await new Promise((r) => setTimeout(r, 200));
+    expect(api.calls.filter((c) => c.path !== "/api/auth.test")).toEqual([]);
+  });
+
+  it("a missing timestamp → 401", async () => {
+    const res = await fetch(url, {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: "{}",
+    });
+    expect(res.status).toBe(401);
+  });
+});
+
+describe("privacy", () => {
+  it("no message text, user ID or identifier in the logs or the store", async () => {
+    logs.length = 0;
+    const body = mention(`Mr Blackwood MRN 7712093 ${PANEL}`);
+    await postSigned(url, SECRET, JSON.stringify(body), "application/json");
+    await postSigned(url, SECRET, slash(`DOB 3/4/1957 ${PANEL}`), "application/x-www-form-urlencoded");
+    await api.waitFor(
+      (c) => c.some((x) => x.path === "/api/chat.postMessage") && c.some((x) => x.path === "/respond/1"),
+    );
+    const reply = api.calls.find((c) => c.path === "/api/chat.postMessage")!;
+    const privateAnswer = api.calls.find((c) => c.path === "/respond/1")!;
+    for (const answer of [reply, privateAnswer]) {
+      for (const secret of ["Blackwood", "7712093", "1957"])
+        expect(JSON.stringify(answer.body)).not.toContain(secret);
+    }
+    const everything = logs.join("\n") + JSON.stringify(store);
+    for (const secret of [
+      "Blackwood",
+      "7712093",
+      "1957",
+      "U00FAKEUSER1",
+      "U00FAKEUSER2",
+      "C00FAKECHAN1",
+      "C00FAKECHAN3",
+      "glu 540",
+      "testuser",
+    ]) {
+      expect(everything).not.toContain(secret);
+    }
+  });
+});

@@ -1,0 +1,142 @@
+import type { AddressInfo } from "node:net";
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { type WebSocket, WebSocketServer } from "ws";
+import { loadConfig } from "../../../bot/config.js";
+import { type Running, startPlatforms } from "../../../bot/platforms.js";
+import { fixture } from "../../helpers/fixtures.js";
+import { BOT_USER_ID, type FakeSlack, fakeSlack } from "../../helpers/slack.js";
+
+const PANEL = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
+
+let api: FakeSlack;
+let wss: WebSocketServer;
+let sockets: WebSocket[];
+let acks: string[];
+let running: Running | undefined;
+
+beforeEach(async () => {
+  api = await fakeSlack();
+  sockets = [];
+  acks = [];
+  wss = new WebSocketServer({ host: "127.0.0.1", port: 0 });
+  await new Promise<void>((r) => wss.once("listening", () => r()));
+  const wsUrl = `ws://127.0.0.1:${(wss.address() as AddressInfo).port}/link`;
+  api.methods["apps.connections.open"] = () => ({ ok: true, url: wsUrl });
+  wss.on("connection", (ws) => {
+    sockets.push(ws);
+    ws.on("message", (data) => {
+      const msg = JSON.parse(String(data)) as { envelope_id?: string };
+      if (msg.envelope_id) acks.push(msg.envelope_id);
+    });
+    ws.send(
+      JSON.stringify({
+        type: "hello",
+        num_connections: 1,
+        debug_info: { host: "local" },
+        connection_info: { app_id: "A00FAKEAPP01" },
+      }),
+    );
+  });
+});
+
+afterEach(async () => {
+  await running?.stop();
+  running = undefined;
+  for (const s of sockets) s.terminate();
+  await new Promise<void>((r) => wss.close(() => r()));
+  await api.close();
+});
+
+async function connected(): Promise<WebSocket> {
+  running = await startPlatforms(
+    loadConfig({
+      SOLUTE_SECRET: "solute-secret-0123456789",
+      SLACK_BOT_TOKEN: "xoxb-test",
+      SLACK_APP_TOKEN: "xapp-test",
+      SLACK_API_URL: `${api.url}/api/`,
+      PORT: "0",
+      HOST: "127.0.0.1",
+    }),
+  );
+  const until = Date.now() + 5000;
+  while (sockets.length === 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 10));
+  return sockets[0]!;
+}
+
+describe("Socket Mode (npm start with SLACK_APP_TOKEN)", () => {
+  it("connects, acks an event envelope, and answers a mention in its thread", async () => {
+    const ws = await connected();
+    const recorded = fixture("channel-mention-slack.json").mention;
+    const payload = {
+      ...recorded,
+      event_id: "EvSOCK1",
+      event: { ...recorded.event, type: "app_mention", text: `<@${BOT_USER_ID}> ${PANEL}` },
+    };
+    ws.send(
+      JSON.stringify({
+        envelope_id: "env-1",
+        type: "events_api",
+        accepts_response_payload: false,
+        retry_attempt: 0,
+        retry_reason: "",
+        payload,
+      }),
+    );
+    const post = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
+      (c) => c.path === "/api/chat.postMessage",
+    )!;
+    expect(acks).toContain("env-1");
+    expect(post.body.thread_ts).toBe(recorded.event.ts);
+    expect(post.body.text).toContain("calculated 300.0");
+  });
+
+  it("a retried envelope with the same event produces one reply", async () => {
+    const ws = await connected();
+    const recorded = fixture("dm-slack.json").dmMessage;
+    const payload = { ...recorded, event_id: "EvSOCK2", event: { ...recorded.event, text: PANEL } };
+    ws.send(JSON.stringify({ envelope_id: "env-2", type: "events_api", retry_attempt: 0, payload }));
+    ws.send(
+      JSON.stringify({
+        envelope_id: "env-3",
+        type: "events_api",
+        retry_attempt: 1,
+        retry_reason: "timeout",
+        payload,
+      }),
+    );
+    await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"));
+    await new Promise((r) => setTimeout(r, 300));
+    expect(acks).toEqual(expect.arrayContaining(["env-2", "env-3"]));
+    expect(api.calls.filter((c) => c.path === "/api/chat.postMessage")).toHaveLength(1);
+  });
+
+  it("answers a slash command privately over the socket", async () => {
+    const ws = await connected();
+    const command = {
+      ...fixture("slash-commands-slack.json").slashCommandWithArgs,
+      command: "/solute",
+      text: PANEL,
+      response_url: `${api.url}/respond/s`,
+    };
+    ws.send(
+      JSON.stringify({
+        envelope_id: "env-4",
+        type: "slash_commands",
+        accepts_response_payload: true,
+        payload: command,
+      }),
+    );
+    const respond = (await api.waitFor((c) => c.some((x) => x.path === "/respond/s"))).find(
+      (c) => c.path === "/respond/s",
+    )!;
+    expect(acks).toContain("env-4");
+    expect(respond.body.response_type).toBe("ephemeral");
+    expect(respond.body.text).toContain("gap 10.0");
+  });
+
+  it("serves /healthz beside the socket", async () => {
+    await connected();
+    const res = await fetch(`http://127.0.0.1:${running!.port}/healthz`);
+    expect(res.status).toBe(200);
+  });
+});
