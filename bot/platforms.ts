@@ -1,6 +1,7 @@
 /** Wires the chat platforms, the store and the HTTP server together for `npm start`. */
 import { createSlackAdapter } from "../adapters/slack/app.js";
 import { MemoryStore } from "../adapters/store/memory.js";
+import { createTeamsAdapter } from "../adapters/teams/app.js";
 import type { Config } from "./config.js";
 import { Conversation } from "./conversation.js";
 import { log } from "./log.js";
@@ -24,6 +25,18 @@ export async function startPlatforms(config: Config): Promise<Running> {
     await slack.start();
     stops.push(() => slack.stop());
     log("info", config.slack.appToken ? "slack.socket-mode" : "slack.http", { platform: "slack" });
+  }
+
+  if (config.teams) {
+    const teams = createTeamsAdapter({ config: config.teams, bot });
+    routes["/api/messages"] = teams.handler;
+    if (config.teams.local) {
+      log("warn", "teams.authentication-off", { platform: "teams" });
+      process.stderr.write(
+        "\n*** Teams authentication is OFF (TEAMS_LOCAL=1): any request to /api/messages is answered. For local trials only. ***\n\n",
+      );
+    }
+    log("info", "teams.http", { platform: "teams" });
   }
 
   const server = await startServer({ port: config.port, host: config.host, routes, store });

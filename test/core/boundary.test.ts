@@ -47,3 +47,16 @@ describe("bot and adapters", () => {
     }
   });
 });
+
+describe("chat SDKs stay inside their adapters", () => {
+  it("botbuilder only under adapters/teams, @slack/* only under adapters/slack", () => {
+    for (const dir of ["core", "bot", "adapters"]) {
+      for (const file of sources(dir)) {
+        for (const spec of imports(file)) {
+          if (/^(botbuilder|botframework)/.test(spec)) expect(file, spec).toMatch(/^adapters\/teams\//);
+          if (spec.startsWith("@slack/")) expect(file, spec).toMatch(/^adapters\/slack\//);
+        }
+      }
+    }
+  });
+});

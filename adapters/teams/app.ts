@@ -1,0 +1,145 @@
+/**
+ * Solute on Microsoft Teams, with botbuilder's CloudAdapter. Every import of botbuilder stays in
+ * this folder (4.23.3 is that SDK's last release), so it can be replaced without touching bot/ or
+ * core/.
+ *
+ * - In a channel the bot answers when mentioned, in the reply thread; in personal and group chats
+ *   it answers every message meant for it. The mention is stripped before reading.
+ * - Replies are Adaptive Cards (1.5) with the working behind a show-card action.
+ * - With MicrosoftAppId set, requests must carry a valid Bot Framework token (401 otherwise). With
+ *   TEAMS_LOCAL=1 and no app ID, authentication is off for trying it locally (never in production).
+ */
+import type { IncomingMessage, ServerResponse } from "node:http";
+import {
+  type Activity,
+  CardFactory,
+  CloudAdapter,
+  ConfigurationBotFrameworkAuthentication,
+  MessageFactory,
+  type TurnContext,
+} from "botbuilder";
+import type { TeamsConfig } from "../../bot/config.js";
+import type { Conversation } from "../../bot/conversation.js";
+import { errorCode, log } from "../../bot/log.js";
+import { channelKey } from "../../bot/privacy.js";
+import { channelOf, cleanText, mentionsBot } from "./events.js";
+import { renderCard } from "./render.js";
+
+/** Largest request body accepted; Teams activities are a few kilobytes. */
+export const MAX_BODY_BYTES = 256 * 1024;
+const DEDUP_MS = 60 * 60 * 1000;
+
+export interface TeamsAdapter {
+  handler: (req: IncomingMessage, res: ServerResponse) => Promise<void>;
+}
+
+/** Reads the body with a size limit; undefined when it is too large. */
+async function readBody(req: IncomingMessage): Promise<string | undefined> {
+  const chunks: Buffer[] = [];
+  let size = 0;
+  for await (const chunk of req) {
+    size += (chunk as Buffer).length;
+    if (size > MAX_BODY_BYTES) return undefined;
+    chunks.push(chunk as Buffer);
+  }
+  return Buffer.concat(chunks).toString("utf8");
+}
+
+/**
+ * CloudAdapter.process() prints whole errors (which can carry request bodies) with console.error;
+ * this adapter runs the same turn through processActivity and logs only error codes.
+ */
+class QuietCloudAdapter extends CloudAdapter {
+  run(authHeader: string, activity: Activity, logic: (context: TurnContext) => Promise<void>) {
+    return this.processActivity(authHeader, activity, logic);
+  }
+}
+
+export function createTeamsAdapter({
+  config,
+  bot,
+}: {
+  config: TeamsConfig;
+  bot: Conversation;
+}): TeamsAdapter {
+  const auth = new ConfigurationBotFrameworkAuthentication(
+    config.appId
+      ? {
+          MicrosoftAppId: config.appId,
+          ...(config.appPassword && { MicrosoftAppPassword: config.appPassword }),
+          ...(config.appType && { MicrosoftAppType: config.appType }),
+          ...(config.tenantId && { MicrosoftAppTenantId: config.tenantId }),
+        }
+      : {},
+  );
+  const adapter = new QuietCloudAdapter(auth);
+  adapter.onTurnError = async (_context, error) => {
+    log("error", "teams.turn-failed", { platform: "teams", code: errorCode(error) });
+  };
+
+  const logic = async (context: TurnContext) => {
+    const activity = context.activity;
+    if (activity.type !== "message") return;
+    const type = activity.conversation?.conversationType;
+    if (type === "channel" && !mentionsBot(activity)) return;
+    const id = `${activity.conversation?.id ?? ""}|${activity.id ?? ""}`;
+    try {
+      if (
+        !(await bot.store.firstSeen(`teams:activity:${channelKey(bot.config.secret, "teams", id)}`, DEDUP_MS))
+      ) {
+        log("info", "teams.retry-dropped", { platform: "teams" });
+        return;
+      }
+    } catch (error) {
+      log("warn", "teams.dedup-unavailable", { platform: "teams", code: errorCode(error) });
+    }
+    const text = cleanText(activity.text ?? "");
+    const reply = await bot.handle({ text, channel: channelOf(activity), platform: "teams" });
+    const message = MessageFactory.attachment(CardFactory.adaptiveCard(renderCard(reply)));
+    message.summary = reply.headline;
+    await context.sendActivity(message);
+  };
+
+  return {
+    handler: async (req, res) => {
+      if (req.method !== "POST") {
+        res.writeHead(405, { allow: "POST" }).end();
+        return;
+      }
+      const raw = await readBody(req);
+      if (raw === undefined) {
+        log("warn", "teams.refused", { platform: "teams", code: "too-large", status: 413 });
+        res.writeHead(413).end();
+        return;
+      }
+      let body: Partial<Activity>;
+      try {
+        body = JSON.parse(raw) as Partial<Activity>;
+        if (!body || typeof body !== "object" || typeof body.type !== "string")
+          throw new Error("not an activity");
+      } catch {
+        log("warn", "teams.refused", { platform: "teams", code: "malformed", status: 400 });
+        res.writeHead(400).end();
+        return;
+      }
+      const header = req.headers.authorization;
+      try {
+        const invoke = await adapter.run(typeof header === "string" ? header : "", body as Activity, logic);
+        res
+          .writeHead(invoke?.status ?? 200, { "content-type": "application/json" })
+          .end(invoke?.body === undefined ? undefined : JSON.stringify(invoke.body));
+      } catch (error) {
+        const status =
+          (error as { statusCode?: unknown }).statusCode === 401 || errorCode(error) === "AuthenticationError"
+            ? 401
+            : 500;
+        log(status === 401 ? "warn" : "error", "teams.refused", {
+          platform: "teams",
+          code: errorCode(error),
+          status,
+        });
+        if (!res.headersSent) res.writeHead(status).end();
+      }
+    },
+  };
+}

@@ -1,0 +1,134 @@
+/**
+ * One contract for every chat adapter: the same requests through the terminal, Slack and Teams,
+ * each rendering carrying the same facts, problems and cautions as the neutral reply.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { oneShot } from "../../adapters/console/oneshot.js";
+import { createSlackAdapter, type SlackAdapter } from "../../adapters/slack/app.js";
+import { MemoryStore } from "../../adapters/store/memory.js";
+import { createTeamsAdapter } from "../../adapters/teams/app.js";
+import { loadConfig } from "../../bot/config.js";
+import { Conversation } from "../../bot/conversation.js";
+import type { Reply } from "../../bot/reply.js";
+import { type HttpServer, startServer } from "../../bot/server.js";
+import { fixture } from "../helpers/fixtures.js";
+import { type FakeSlack, fakeSlack, form, postSigned } from "../helpers/slack.js";
+import { type FakeConnector, fakeConnector, replay } from "../helpers/teams.js";
+
+const SIGNING = "contract-signing-secret";
+const env = {
+  SOLUTE_SECRET: "solute-secret-0123456789",
+  SLACK_BOT_TOKEN: "xoxb-test",
+  SLACK_SIGNING_SECRET: SIGNING,
+  TEAMS_LOCAL: "1",
+};
+
+const REQUESTS = [
+  "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
+  "Na 139 glu 6.1 mmol/L urea 5.2 mmol/L osm 318 EtOH 230 mg/dL Cl 101 HCO3 12",
+  "glucose 30 Na 1280",
+  "check Na 128 glu 540 mg/dL urea 14 mmol/L calc osm 810",
+  "Mr Ashdown-Pryce Na 128 glu 6 mmol/L urea 4 mmol/L",
+  "help",
+];
+
+let api: FakeSlack;
+let connector: FakeConnector;
+let server: HttpServer;
+let slack: SlackAdapter;
+
+beforeAll(async () => {
+  api = await fakeSlack();
+  connector = await fakeConnector();
+  const config = loadConfig({ ...env, SLACK_API_URL: `${api.url}/api/` });
+  const bot = new Conversation(new MemoryStore(), config);
+  slack = createSlackAdapter({ config: config.slack!, bot });
+  const teams = createTeamsAdapter({ config: config.teams!, bot });
+  server = await startServer({
+    port: 0,
+    host: "127.0.0.1",
+    routes: { "/slack/events": slack.handler!, "/api/messages": teams.handler },
+    store: bot.store,
+  });
+});
+
+afterAll(async () => {
+  await server.close();
+  await slack.stop();
+  await api.close();
+  await connector.close();
+});
+
+/** The neutral reply, for what every rendering must carry. */
+async function neutral(text: string): Promise<Reply> {
+  const config = loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789" });
+  return new Conversation(new MemoryStore(), config).handle({ text, channel: "x", platform: "console" });
+}
+
+async function viaTerminal(text: string): Promise<string> {
+  let out = "";
+  await oneShot(
+    [text],
+    (s) => {
+      out += s;
+    },
+    () => {},
+    () => new MemoryStore(),
+  );
+  return out;
+}
+
+async function viaSlack(text: string, n: number): Promise<string> {
+  const base = fixture("slash-commands-slack.json").slashCommandWithArgs;
+  const path = `/respond/${n}`;
+  await postSigned(
+    `http://127.0.0.1:${server.port}/slack/events`,
+    SIGNING,
+    form({ ...base, command: "/solute", text, response_url: `${api.url}${path}` }),
+    "application/x-www-form-urlencoded",
+  );
+  const call = (await api.waitFor((c) => c.some((x) => x.path === path))).find((c) => c.path === path)!;
+  // What a person sees: the blocks' texts, unescaped.
+  return JSON.stringify(call.body.blocks).replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+}
+
+async function viaTeams(text: string): Promise<string> {
+  const before = connector.sent.length;
+  await fetch(`http://127.0.0.1:${server.port}/api/messages`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify(replay(fixture("dm-teams.json").dmMessage, text, connector.serviceUrl)),
+  });
+  const sent = await connector.waitFor(before + 1);
+  const card = (sent[before]!.activity.attachments as { content: { body: unknown } }[])[0]!.content;
+  return JSON.stringify(card.body);
+}
+
+const json = (s: string) => JSON.stringify(s).slice(1, -1);
+
+describe.each(REQUESTS.map((r, i) => [r, i] as const))("contract: %s", (text, i) => {
+  it("the terminal, Slack and Teams carry the same facts, problems and cautions", async () => {
+    const reply = await neutral(text);
+    const renderings = {
+      terminal: await viaTerminal(text),
+      slack: await viaSlack(text, i),
+      teams: await viaTeams(text),
+    };
+    const must = [
+      reply.headline,
+      ...reply.facts.map((f) => f.value),
+      ...reply.facts.map((f) => f.label),
+      ...reply.problems.map((p) => p.message),
+      ...reply.cautions,
+      ...reply.interpretation,
+    ];
+    expect(must.length).toBeGreaterThan(1);
+    for (const [name, rendered] of Object.entries(renderings)) {
+      for (const piece of must) {
+        const found = rendered.includes(piece) || rendered.includes(json(piece));
+        expect(found, `${name} lacks: ${piece}`).toBe(true);
+      }
+      expect(rendered, name).not.toContain("Ashdown");
+    }
+  });
+});

@@ -1,0 +1,210 @@
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { MemoryStore } from "../../../adapters/store/memory.js";
+import { createTeamsAdapter } from "../../../adapters/teams/app.js";
+import { type AdaptiveCard, renderCard } from "../../../adapters/teams/render.js";
+import { loadConfig } from "../../../bot/config.js";
+import { Conversation } from "../../../bot/conversation.js";
+import { setLogSink } from "../../../bot/log.js";
+import { emptyReply } from "../../../bot/reply.js";
+import { type HttpServer, startServer } from "../../../bot/server.js";
+import { CAUTIONS } from "../../../core/cautions.js";
+import { cardProblems } from "../../helpers/cards.js";
+import { fixture } from "../../helpers/fixtures.js";
+import { type FakeConnector, fakeConnector, replay } from "../../helpers/teams.js";
+
+const PANEL = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
+const logs: string[] = [];
+let connector: FakeConnector;
+let server: HttpServer;
+let store: MemoryStore;
+let url: string;
+
+beforeAll(() => setLogSink((l) => logs.push(l)));
+afterAll(() => setLogSink((l) => process.stderr.write(`${l}\n`)));
+
+async function start(env: Record<string, string>) {
+  const config = loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789", ...env });
+  store = new MemoryStore();
+  const adapter = createTeamsAdapter({ config: config.teams!, bot: new Conversation(store, config) });
+  server = await startServer({
+    port: 0,
+    host: "127.0.0.1",
+    routes: { "/api/messages": adapter.handler },
+    store,
+  });
+  url = `http://127.0.0.1:${server.port}/api/messages`;
+}
+
+const post = (body: unknown, headers: Record<string, string> = {}) =>
+  fetch(url, {
+    method: "POST",
+    headers: { "content-type": "application/json", ...headers },
+    body: typeof body === "string" ? body : JSON.stringify(body),
+  });
+
+beforeEach(async () => {
+  connector = await fakeConnector();
+});
+afterEach(async () => {
+  await server?.close();
+  await connector.close();
+});
+
+describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
+  beforeEach(() => start({ TEAMS_LOCAL: "1" }));
+
+  it("a channel mention is answered in its reply thread, with the mention stripped", async () => {
+    const recorded = fixture("channel-teams.json").mention;
+    const activity = replay(recorded, `<at>Chat SDK Demo</at> ${PANEL}`, connector.serviceUrl);
+    const res = await post(activity);
+    expect(res.status).toBe(200);
+    const [sent] = await connector.waitFor(1);
+    // Replies go to the conversation (which names the thread) as a reply to the activity.
+    expect(sent!.path).toBe(`/v3/conversations/${recorded.conversation.id}/activities/${activity.id}`);
+    expect(sent!.activity.replyToId).toBe(activity.id);
+    const card = (sent!.activity.attachments as { contentType: string; content: AdaptiveCard }[])[0]!;
+    expect(card.contentType).toBe("application/vnd.microsoft.card.adaptive");
+    expect(card.content.version).toBe("1.5");
+    expect(cardProblems(card.content)).toEqual([]);
+    expect(JSON.stringify(card.content.body)).toContain(
+      "Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg",
+    );
+    expect(card.content.fallbackText).toContain("Read as: Na 128 mmol/L");
+    expect(card.content.fallbackText).not.toContain("not understood");
+    expect(JSON.stringify(card.content.actions)).toContain("Show working");
+    expect(JSON.stringify(card.content.actions)).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+  });
+
+  it("a channel message without a mention is left alone", async () => {
+    const recorded = fixture("channel-teams.json").channel_post_action;
+    const res = await post(replay({ ...recorded, value: undefined }, PANEL, connector.serviceUrl));
+    expect(res.status).toBe(200);
+    await new Promise((r) => setTimeout(r, 200));
+    expect(connector.sent).toHaveLength(0);
+  });
+
+  it("a personal chat is answered without a mention (recorded payload)", async () => {
+    const recorded = fixture("dm-teams.json").dmMessage;
+    const activity = replay(recorded, PANEL, connector.serviceUrl);
+    await post(activity);
+    const [sent] = await connector.waitFor(1);
+    expect(sent!.path).toContain(`/v3/conversations/${recorded.conversation.id}/activities/`);
+    expect(JSON.stringify(sent!.activity)).toContain("gap 10.0");
+  });
+
+  it("a group chat is answered", async () => {
+    const recorded = fixture("dm-teams.json").dmMessage;
+    const activity = replay(
+      {
+        ...recorded,
+        conversation: {
+          ...recorded.conversation,
+          conversationType: "groupChat",
+          isGroup: true,
+          id: "19:group@thread.v2",
+        },
+      },
+      PANEL,
+      connector.serviceUrl,
+    );
+    await post(activity);
+    await connector.waitFor(1);
+  });
+
+  it("a redelivered activity is answered once", async () => {
+    const activity = replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl, "same-id");
+    await post(activity);
+    await post(activity);
+    await connector.waitFor(1);
+    await new Promise((r) => setTimeout(r, 200));
+    expect(connector.sent).toHaveLength(1);
+  });
+
+  it("malformed JSON → 400, oversize → 413, wrong method → 405, nothing processed", async () => {
+    expect((await post("{not json")).status).toBe(400);
+    expect((await post({ no: "type" })).status).toBe(400);
+    expect((await post({ type: "message", text: "x".repeat(300_000) })).status).toBe(413);
+    expect((await fetch(url)).status).toBe(405);
+    await new Promise((r) => setTimeout(r, 100));
+    expect(connector.sent).toHaveLength(0);
+  });
+
+  it("no message text, user ID or identifier in the logs or the store", async () => {
+    logs.length = 0;
+    const recorded = fixture("dm-teams.json").dmMessage;
+    await post(replay(recorded, `Mrs Penhaligon DOB 4/5/1949 ${PANEL}`, connector.serviceUrl));
+    const [sent] = await connector.waitFor(1);
+    expect(JSON.stringify(sent!.activity)).not.toContain("Penhaligon");
+    const everything = logs.join("\n") + JSON.stringify(store);
+    for (const secret of [
+      "Penhaligon",
+      "1949",
+      recorded.from.id,
+      recorded.from.aadObjectId,
+      recorded.conversation.id,
+      "Test User",
+      "glu 540",
+    ]) {
+      expect(everything).not.toContain(secret);
+    }
+  });
+});
+
+describe("Teams with an app ID (authentication on)", () => {
+  beforeEach(() =>
+    start({
+      MicrosoftAppId: "11111111-2222-3333-4444-555555555555",
+      MicrosoftAppPassword: "not-a-real-password",
+    }),
+  );
+
+  it("an unsigned request is refused with 401 and nothing is processed", async () => {
+    const res = await post(replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl));
+    expect(res.status).toBe(401);
+    const forged = await post(replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl), {
+      authorization: "Bearer not.a.token",
+    });
+    expect(forged.status).toBe(401);
+    await new Promise((r) => setTimeout(r, 200));
+    expect(connector.sent).toHaveLength(0);
+  });
+});
+
+describe("the Adaptive Card", () => {
+  it("validates with the Adaptive Cards library, version 1.5 at most, every block wrapping", async () => {
+    const config = loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789" });
+    const bot = new Conversation(new MemoryStore(), config);
+    for (const text of [
+      PANEL,
+      `${PANEL} working`,
+      "help",
+      "glucose 30",
+      "check Na 128 calc osm 290",
+      "units si",
+    ]) {
+      const card = renderCard(await bot.handle({ text, channel: "c", platform: "teams" }));
+      expect(cardProblems(card), text).toEqual([]);
+      const blocks = JSON.stringify(card).match(/"type":"TextBlock"[^}]*}/g) ?? [];
+      for (const b of blocks) expect(b).toContain('"wrap":true');
+    }
+  });
+
+  it("ends with the cautions", () => {
+    const reply = emptyReply("result", "h");
+    reply.cautions = [CAUTIONS.general];
+    const card = renderCard(reply);
+    expect(JSON.stringify(card.body.at(-1))).toContain(CAUTIONS.general);
+  });
+
+  it("the card checker catches what it should", () => {
+    expect(cardProblems({ type: "AdaptiveCard", body: [] })).toContain("no version");
+    expect(cardProblems({ type: "AdaptiveCard", version: "1.6", body: [] })).toContain("version 1.6 > 1.5");
+    expect(
+      cardProblems({
+        type: "AdaptiveCard",
+        version: "1.5",
+        body: [{ type: "TextBlock", text: "x", color: "purple" }],
+      }).length,
+    ).toBeGreaterThan(0);
+  });
+});
