@@ -3,7 +3,7 @@ import type { JsonReply } from "../../bot/json.js";
 import { CAUTIONS } from "../../core/cautions.js";
 import { cleanEnv, run, solute } from "../helpers/spawn.js";
 
-describe.concurrent("the one-shot command", () => {
+describe("the one-shot command", { timeout: 60_000 }, () => {
   it("prints the JSON contract for the README's example", async () => {
     const r = await solute(["--json", "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"]);
     expect(r.code).toBe(0);
@@ -82,7 +82,7 @@ describe.concurrent("the one-shot command", () => {
   });
 });
 
-describe("the terminal chat", () => {
+describe("the terminal chat", { timeout: 60_000 }, () => {
   it("answers lines typed on stdin, shows the working, and quits", async () => {
     const r = await run(process.execPath, ["--import", "tsx", "bot/main.ts"], {
       input:

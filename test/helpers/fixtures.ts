@@ -1,9 +1,12 @@
-/** The recorded platform payloads in ../shared/fixtures/platform (MIT; see its README). */
+/**
+ * Recorded Slack and Teams payloads (MIT; see test/fixtures/platform/README.md and LICENSE), copied
+ * from the shared fixtures so the tests do not depend on a folder outside the repository.
+ */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { ROOT } from "./spawn.js";
 
-const DIR = join(ROOT, "..", "shared", "fixtures", "platform");
+const DIR = join(ROOT, "test", "fixtures", "platform");
 
 // biome-ignore lint/suspicious/noExplicitAny: recorded JSON, shaped by the platforms
 export function fixture(name: string): any {

@@ -41,7 +41,7 @@ export function run(
     const timer = setTimeout(() => {
       child.kill("SIGKILL");
       reject(new Error(`timed out: ${command} ${args.join(" ")}\n${stdout}\n${stderr}`));
-    }, options.timeoutMs ?? 30_000);
+    }, options.timeoutMs ?? 60_000);
     child.on("error", reject);
     child.on("close", (code) => {
       clearTimeout(timer);
