@@ -16,6 +16,7 @@ import { helpReply } from "./help.js";
 import { errorCode, log } from "./log.js";
 import { channelKey, type Platform } from "./privacy.js";
 import { emptyReply, type Reply } from "./reply.js";
+import { registerShiftCommands } from "./shift.js";
 import type { ChannelSettings, Store } from "./store.js";
 
 export interface Request {
@@ -25,7 +26,10 @@ export interface Request {
   platform: Platform;
 }
 
-export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits">;
+export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits"> & {
+  /** Messages per channel per minute; unlimited when absent. */
+  rateLimitPerMinute?: number;
+};
 
 export interface Context {
   request: Request;
@@ -54,6 +58,7 @@ export class Conversation {
     this.command(["help", "?", "hello", "hi"], async () => helpReply());
     this.command(["units", "unit"], (ctx) => this.units(ctx));
     this.command(["check", "verify"], async (ctx) => this.check(ctx));
+    registerShiftCommands(this);
   }
 
   /** Registers a command under one or more first words. */
@@ -73,6 +78,15 @@ export class Conversation {
       return reply;
     }
     const channel = channelKey(this.config.secret, request.platform, request.channel);
+    if (!(await this.withinRate(channel))) {
+      const reply = emptyReply("nothing", "Too many messages in this channel just now");
+      reply.problems.push({
+        code: "rate.limited",
+        message: "Solute is answering too many messages from this channel; try again in a minute.",
+      });
+      log("warn", "rate-limited", { platform: request.platform });
+      return reply;
+    }
     const settings = await this.settingsFor(channel);
     const working = /(^|\s)(working|--working|show working)(\s|$)/i;
     const showWorking = working.test(text);
@@ -110,6 +124,18 @@ export class Conversation {
 
   /** Called after every calculation (the shift log hooks in here). */
   readonly afterCalculation: ((ctx: Context, reply: Reply) => Promise<void>)[] = [];
+
+  /** Per-channel rate limit through the store, so every replica counts together; open if it fails. */
+  private async withinRate(channel: string): Promise<boolean> {
+    const limit = this.config.rateLimitPerMinute;
+    if (!limit) return true;
+    try {
+      return await this.store.hit(channel, limit, 60_000);
+    } catch (error) {
+      log("warn", "store.rate-unavailable", { code: errorCode(error) });
+      return true;
+    }
+  }
 
   private async settingsFor(channel: string): Promise<ChannelSettings> {
     try {

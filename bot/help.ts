@@ -10,6 +10,9 @@ export const HELP_LINES = [
   "check Na 131 glu 22 mmol/L urea 9 mmol/L calc osm 300 — checks a colleague's result and names the slip if it does not hold.",
   "check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 — checks the arithmetic itself.",
   "units si · units conventional · units none — how this channel's bare glucose, urea and alcohol values are read. Units written in the message always win.",
+  "handover — this channel's shift summary by bed or bay: latest values, what was flagged, sodium trends.",
+  "trend bed 12 — that case's serial sodiums, the change over 24 h and its rate, checked against correction limits.",
+  "forget — clears this channel's shift log now (it clears itself after the shift).",
 ];
 
 export function helpReply(extra: string[] = []): Reply {

@@ -3,11 +3,10 @@
  * the terminal chat — on one store (memory, or Redis when REDIS_URL is set).
  */
 import { startConsole } from "../adapters/console/app.js";
-import { MemoryStore } from "../adapters/store/memory.js";
 import { type Config, ConfigError, loadConfig } from "./config.js";
 import { Conversation } from "./conversation.js";
 import { log, setQuiet } from "./log.js";
-import { startPlatforms } from "./platforms.js";
+import { makeStore, startPlatforms } from "./platforms.js";
 
 async function main(): Promise<void> {
   let config: Config;
@@ -21,8 +20,8 @@ async function main(): Promise<void> {
     throw e;
   }
   if (!config.slack && !config.teams) {
-    const store = new MemoryStore();
     setQuiet(true);
+    const store = await makeStore(config);
     await startConsole(new Conversation(store, config), process.stdin, process.stdout);
     await store.close();
     return;

@@ -1,11 +1,23 @@
 /** Wires the chat platforms, the store and the HTTP server together for `npm start`. */
 import { createSlackAdapter } from "../adapters/slack/app.js";
 import { MemoryStore } from "../adapters/store/memory.js";
+import { RedisStore } from "../adapters/store/redis.js";
 import { createTeamsAdapter } from "../adapters/teams/app.js";
 import type { Config } from "./config.js";
 import { Conversation } from "./conversation.js";
 import { log } from "./log.js";
 import { type Handler, startServer } from "./server.js";
+import type { Store } from "./store.js";
+
+/** The store the configuration asks for: Redis when REDIS_URL is set, else in memory. */
+export async function makeStore(config: Config): Promise<Store> {
+  if (!config.redisUrl) return new MemoryStore();
+  const store = new RedisStore(config.redisUrl);
+  await store.connect();
+  const ok = await store.ready();
+  log(ok ? "info" : "warn", "store.redis", { code: ok ? "ready" : "not-yet-reachable" });
+  return store;
+}
 
 export interface Running {
   port?: number;
@@ -14,7 +26,7 @@ export interface Running {
 
 /** Starts the chat platforms the configuration names; resolves once they are ready. */
 export async function startPlatforms(config: Config): Promise<Running> {
-  const store = new MemoryStore();
+  const store = await makeStore(config);
   const bot = new Conversation(store, config);
   const routes: Record<string, Handler> = {};
   const stops: (() => Promise<void>)[] = [];
