@@ -14,6 +14,7 @@ import type { Config } from "./config.js";
 import { evaluateExpression } from "./expression.js";
 import { helpReply } from "./help.js";
 import { errorCode, log } from "./log.js";
+import { registerPlanCommand } from "./plan.js";
 import { channelKey, type Platform } from "./privacy.js";
 import { emptyReply, type Reply } from "./reply.js";
 import { registerShiftCommands } from "./shift.js";
@@ -59,6 +60,7 @@ export class Conversation {
     this.command(["units", "unit"], (ctx) => this.units(ctx));
     this.command(["check", "verify"], async (ctx) => this.check(ctx));
     registerShiftCommands(this);
+    registerPlanCommand(this);
   }
 
   /** Registers a command under one or more first words. */

@@ -12,6 +12,7 @@ export const HELP_LINES = [
   "units si · units conventional · units none — how this channel's bare glucose, urea and alcohol values are read. Units written in the message always win.",
   "handover — this channel's shift summary by bed or bay: latest values, what was flagged, sodium trends.",
   "trend bed 12 — that case's serial sodiums, the change over 24 h and its rate, checked against correction limits.",
+  "plan Na 118 70 kg woman adult 1 L 0.9% NaCl — what a litre (or 500 mL …) of a fluid is expected to do to the sodium (Adrogué–Madias), checked against correction limits; with a sodium above 145, the free water deficit.",
   "forget — clears this channel's shift log now (it clears itself after the shift).",
 ];
 

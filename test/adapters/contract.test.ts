@@ -29,6 +29,7 @@ const REQUESTS = [
   "glucose 30 Na 1280",
   "check Na 128 glu 540 mg/dL urea 14 mmol/L calc osm 810",
   "Mr Ashdown-Pryce Na 128 glu 6 mmol/L urea 4 mmol/L",
+  "plan Na 110 TBW 30 L 1 L 3% NaCl",
   "help",
 ];
 
