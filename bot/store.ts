@@ -4,8 +4,9 @@
  * events and rate-limit counters — never message text, names or user IDs. Channels are known only
  * by an HMAC of their platform ID (see privacy.ts).
  */
+import { z } from "zod";
 import type { UnitSystem } from "../core/analytes.js";
-import type { LabInputs } from "../core/inputs.js";
+import { type LabInputs, LabInputsSchema } from "../core/inputs.js";
 
 export interface ChannelSettings {
   unitSystem?: UnitSystem;
@@ -51,3 +52,29 @@ export interface Store {
   ready(): Promise<boolean>;
   close(): Promise<void>;
 }
+
+const RESULT_KEYS = [
+  "calculatedOsmolality",
+  "effectiveOsmolality",
+  "osmolalGap",
+  "anionGap",
+  "correctedSodiumKatz",
+  "correctedSodiumHillier",
+] as const satisfies readonly ResultKey[];
+
+/**
+ * What a stored record must look like when it is read back from a shared store (zod): the typed
+ * inputs with their typo guards, finite results, a short tag and flags — and nothing else.
+ */
+export const ShiftRecordSchema = z
+  .object({
+    channel: z.string().max(64),
+    tag: z.string().min(1).max(20),
+    at: z.number().int().nonnegative(),
+    inputs: LabInputsSchema,
+    results: z
+      .object(Object.fromEntries(RESULT_KEYS.map((k) => [k, z.number().finite().optional()])))
+      .strict(),
+    flags: z.array(z.string().max(64)).max(64),
+  })
+  .strict();

@@ -249,7 +249,21 @@ function alcohol(
 }
 
 /** Factor from `unit` to the analyte's canonical unit, or undefined when the unit is not accepted. */
+const FACTORS = new Map<AnalyteId, Map<Unit, number | undefined>>();
+
 export function toCanonicalFactor(analyte: Analyte, unit: Unit): number | undefined {
+  let byUnit = FACTORS.get(analyte.id);
+  if (!byUnit) {
+    byUnit = new Map();
+    FACTORS.set(analyte.id, byUnit);
+  }
+  if (byUnit.has(unit)) return byUnit.get(unit);
+  const factor = computeFactor(analyte, unit);
+  byUnit.set(unit, factor);
+  return factor;
+}
+
+function computeFactor(analyte: Analyte, unit: Unit): number | undefined {
   if (!analyte.units.includes(unit)) return undefined;
   if (unit === analyte.canonicalUnit) return 1;
   if (unit === "mEq/L") return 1 / (analyte.valence ?? 1);

@@ -114,19 +114,16 @@ export function assess(inputs: LabInputs, options: AssessOptions = {}): Assessme
   readHhs(inputs, effective, calculated, findings, cautions);
   if (inputs.ethanol !== undefined) cautions.add("ethanolFactor");
 
-  return {
-    inputs,
-    results: {
-      ...(calculated && { calculatedOsmolality: calculated }),
-      ...(effective && { effectiveOsmolality: effective }),
-      ...(gap && { osmolalGap: gap }),
-      ...(ag && { anionGap: ag }),
-      ...(katz && hillier && { correctedSodium: { katz, hillier } }),
-    },
-    alternatives,
-    findings,
-    cautions: [...cautions].map((id) => CAUTIONS[id]).concat(CAUTIONS.general),
-  };
+  const results: Assessment["results"] = {};
+  if (calculated) results.calculatedOsmolality = calculated;
+  if (effective) results.effectiveOsmolality = effective;
+  if (gap) results.osmolalGap = gap;
+  if (ag) results.anionGap = ag;
+  if (katz && hillier) results.correctedSodium = { katz, hillier };
+  const texts: string[] = [];
+  for (const id of cautions) texts.push(CAUTIONS[id]);
+  texts.push(CAUTIONS.general);
+  return { inputs, results, alternatives, findings, cautions: texts };
 }
 
 function flagCritical(inputs: LabInputs, findings: Finding[], cautions: Set<CautionId>): void {

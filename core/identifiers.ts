@@ -198,9 +198,17 @@ export function findIdentifiers(
       else if (LONG_DIGITS.test(text)) hit("record-number", i);
       continue;
     }
-    if (text.includes("@") && EMAIL.test(text)) hit("email", i);
-    else if (URL_LIKE.test(text)) hit("url", i);
-    else if (IPV4.test(text) && text.split(".").every((p) => Number(p) <= 255)) hit("ip-address", i);
+    // Most tokens are plain words or plain numbers: only those with a digit, "@" or "." can be
+    // any of the single-token identifiers below.
+    const digit = /\d/.test(text);
+    const dotted = text.includes(".");
+    if (!digit && !dotted && !text.includes("@")) {
+      // nothing to check alone; the multi-token checks follow
+    } else if (text.includes("@") && EMAIL.test(text)) hit("email", i);
+    else if (dotted && URL_LIKE.test(text)) hit("url", i);
+    else if (!digit) {
+      // words with a dot but no digit: only a URL could have matched
+    } else if (IPV4.test(text) && text.split(".").every((p) => Number(p) <= 255)) hit("ip-address", i);
     else if (SSN.test(text)) hit("social-security-number", i);
     else if (isDate(text)) hit("date", i);
     else if (PHONE_PUNCT.test(text)) hit("phone-number", i);
@@ -218,7 +226,7 @@ export function findIdentifiers(
     }
 
     // Runs of digit groups: "943 476 5919", "07700 900123", "555 123 4567".
-    if (DIGITS.test(text) && text.length >= 2 && text.length <= 5) {
+    if (digit && text.length >= 2 && text.length <= 5 && DIGITS.test(text)) {
       let j = i;
       let digits = text;
       while (
@@ -239,7 +247,7 @@ export function findIdentifiers(
     }
 
     // A month name with a day or year beside it: "12 March", "March 12, 1950", "Jan 1950".
-    if (MONTHS.has(low.replace(/\.$/, ""))) {
+    if (!digit && low.length <= 10 && MONTHS.has(low.endsWith(".") ? low.slice(0, -1) : low)) {
       const before = i > 0 && /^\d{1,4}(st|nd|rd|th)?$/i.test(tokens[i - 1]!.text);
       const after = i + 1 < tokens.length && /^\d{1,4}(st|nd|rd|th)?$/i.test(tokens[i + 1]!.text);
       if (before || after) {
@@ -291,7 +299,7 @@ export function findIdentifiers(
     }
 
     // Ages over 89: "92 yo", "aged 93", "94 years old".
-    if (/^\d{2,3}$/.test(text) && Number(text) >= 90 && Number(text) < 130) {
+    if (digit && /^\d{2,3}$/.test(text) && Number(text) >= 90 && Number(text) < 130) {
       const next = lower[i + 1];
       const prev = lower[i - 1];
       if ((next !== undefined && AGE_WORDS.has(next)) || (prev !== undefined && AGE_LEADS.has(prev))) {

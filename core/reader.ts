@@ -7,7 +7,7 @@
 import { ANALYTES, type Analyte, type AnalyteId, toCanonicalFactor, type UnitSystem } from "./analytes.js";
 import { num } from "./format.js";
 import { findIdentifiers, IDENTIFIER_LABELS, type IdentifierKind } from "./identifiers.js";
-import { INPUT_KEYS, type InputKey, type LabInputs, validateInputs } from "./inputs.js";
+import { INPUT_KEYS, type InputKey, type LabInputs } from "./inputs.js";
 import { MAX_TOKEN_LENGTH, type Token, tokenize } from "./tokens.js";
 import type { Unit } from "./units.js";
 import {
@@ -83,6 +83,11 @@ for (const [id, aliases] of Object.entries(CLAIM_ALIASES) as [ClaimKind, readonl
   for (const alias of aliases) PHRASES.set(alias, { kind: "claim", id });
 }
 for (const key of PHRASES.keys()) longestPhrase = Math.max(longestPhrase, key.split(" ").length);
+/** First words of multi-word phrases, so most tokens are looked up once, not once per length. */
+const PHRASE_STARTS = new Set(
+  [...PHRASES.keys()].filter((k) => k.includes(" ")).map((k) => k.split(" ")[0]!),
+);
+const UNIT_BY_SPELLING = new Map<string, Unit>(UNIT_SPELLINGS.map(([spelling, unit]) => [spelling, unit]));
 
 function isKnownWord(lower: string): boolean {
   return (
@@ -98,9 +103,7 @@ const NUMBER = /^([<>≤≥]?[-−]?)(\d{1,6}(?:[.,]\d{1,20})?|[.,]\d{1,20})$/;
 const NUMBER_THEN_REST = /^([<>≤≥]?\d{1,6}(?:[.,]\d{1,20})?)([^\d.,].*)$/;
 
 function unitOf(text: string): Unit | undefined {
-  const low = text.toLowerCase().replace(/\s+/g, "");
-  for (const [spelling, unit] of UNIT_SPELLINGS) if (low === spelling) return unit;
-  return undefined;
+  return UNIT_BY_SPELLING.get(text.toLowerCase());
 }
 
 interface ParsedNumber {
@@ -132,8 +135,9 @@ function splitGlued(token: Token): Token[] {
   const text = token.text;
   const low = text.toLowerCase();
   if (PHRASES.has(low) || unitOf(text) || NUMBER.test(text) || text.length > MAX_TOKEN_LENGTH) return [token];
-  // name then number
-  for (let cut = Math.min(low.length - 1, 12); cut >= 1; cut--) {
+  // name then number (only a token that has a digit can be glued)
+  const firstDigit = low.search(/\d/);
+  for (let cut = Math.min(low.length - 1, 12, firstDigit < 0 ? 0 : low.length); cut >= 1; cut--) {
     const head = low.slice(0, cut);
     const rest = text.slice(cut);
     if (PHRASES.has(head) && /^[<>≤≥]?\d/.test(rest)) {
@@ -183,6 +187,11 @@ export function checkTag(code: string): { ok: true; tag: string } | { ok: false;
 }
 
 const ordinal = (n: number) => `word ${n + 1}`;
+/** True when the text has no character above U+007F (it then needs no Unicode folding). */
+const isAscii = (text: string) => {
+  for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) > 0x7f) return false;
+  return true;
+};
 
 export function readMessage(text: string, options: ReadOptions = {}): Reading {
   const problems: Problem[] = [];
@@ -191,7 +200,8 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   const claims: Claim[] = [];
   let tag: string | undefined;
 
-  const raw = tokenize(text.normalize("NFKC"));
+  // NFKC folds full-width digits and letters; plain ASCII needs no folding.
+  const raw = tokenize(isAscii(text) ? text : text.normalize("NFKC"));
   // Identifiers are found on the tokens as written, and those tokens are never read or echoed.
   const hits = findIdentifiers(raw, isKnownWord);
   const masked = new Set<number>();
@@ -206,10 +216,12 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
 
   // Glued tokens are split after masking; masked tokens stay whole and are skipped.
   const tokens: (Token & { masked: boolean; word: number })[] = [];
-  raw.forEach((t, i) => {
-    const parts = masked.has(i) ? [t] : splitGlued(t);
-    for (const p of parts) tokens.push({ ...p, masked: masked.has(i), word: i });
-  });
+  for (let i = 0; i < raw.length; i++) {
+    const t = raw[i]!;
+    const isMasked = masked.has(i);
+    for (const p of isMasked ? [t] : splitGlued(t))
+      tokens.push({ text: p.text, start: p.start, end: p.end, masked: isMasked, word: i });
+  }
   const lower = tokens.map((t) => t.text.toLowerCase());
   const unknownWords: number[] = [];
 
@@ -243,11 +255,19 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
 
     // Longest phrase match (analyte or claimed result), after optional modifiers.
     let match: { vocab: Vocab; length: number } | undefined;
-    for (let n = Math.min(longestPhrase, tokens.length - i); n >= 1 && !match; n--) {
-      if (tokens.slice(i, i + n).some((t) => t.masked)) continue;
-      const phrase = lower.slice(i, i + n).join(" ");
-      const vocab = PHRASES.get(phrase);
-      if (vocab) match = { vocab, length: n };
+    if (PHRASE_STARTS.has(low)) {
+      let phrase = low;
+      const candidates: { vocab: Vocab; length: number }[] = [];
+      for (let n = 2; n <= longestPhrase && i + n <= tokens.length && !tokens[i + n - 1]!.masked; n++) {
+        phrase = `${phrase} ${lower[i + n - 1]}`;
+        const vocab = PHRASES.get(phrase);
+        if (vocab) candidates.push({ vocab, length: n });
+      }
+      match = candidates.at(-1);
+    }
+    if (!match) {
+      const vocab = PHRASES.get(low);
+      if (vocab) match = { vocab, length: 1 };
     }
     if (!match && MODIFIERS.has(low)) {
       i++;
@@ -278,10 +298,15 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     }
 
     const nameEnd = i + match.length;
-    const label = tokens
-      .slice(i, nameEnd)
-      .map((t) => t.text)
-      .join(" ");
+    // The name as written, for messages only (most messages have no problem to word).
+    const nameStart = i;
+    const label =
+      match.length === 1
+        ? token.text
+        : tokens
+            .slice(nameStart, nameEnd)
+            .map((t) => t.text)
+            .join(" ");
     // Optional unit before the number ("glucose mg/dL 540"), the number, optional unit after.
     let j = nameEnd;
     let unitBefore: Unit | undefined;
@@ -430,16 +455,18 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   }
 
   const merged = mergeDuplicates(values, problems);
-  const { inputs, issues } = validateInputs(Object.fromEntries(merged.map((v) => [v.key, v.canonical])));
-  for (const issue of issues) problems.push({ code: "value.implausible", message: issue.message });
+  // Every value here has passed its typo guard above (the same bounds LabInputsSchema holds), so
+  // the inputs are built directly; zod guards inputs from outside the reader (the stored log).
+  const inputs: LabInputs = {};
+  for (const v of merged) inputs[v.key] = v.canonical;
 
   return {
     inputs,
     problems: capped(problems),
-    values: merged.filter((v) => inputs[v.key] !== undefined),
+    values: merged,
     claims,
     ...(tag !== undefined && { tag }),
-    notes: [...new Set(notes)].slice(0, MAX_PER_CODE * 2),
+    notes: notes.length === 0 ? notes : [...new Set(notes)].slice(0, MAX_PER_CODE * 2),
     echo: echoOf(merged),
     identifiers,
   };

@@ -46,7 +46,7 @@ export function tokenize(text: string): Token[] {
   let start = -1;
   for (let i = 0; i <= text.length; i++) {
     const c = text[i];
-    let separator = c === undefined || SEPARATORS.has(c) || /\s/.test(c);
+    let separator = c === undefined || SEPARATORS.has(c) || (c > "\u007f" && /\s/.test(c));
     if (separator && (c === "," || c === ":") && isDigit(text[i - 1]) && isDigit(text[i + 1]) && start >= 0) {
       separator = false;
     }

@@ -15,7 +15,7 @@
 import { randomUUID } from "node:crypto";
 import { createClient } from "redis";
 import { errorCode, log } from "../../bot/log.js";
-import type { ChannelSettings, ShiftRecord, Store } from "../../bot/store.js";
+import { type ChannelSettings, type ShiftRecord, ShiftRecordSchema, type Store } from "../../bot/store.js";
 
 const P = "solute:";
 
@@ -87,7 +87,19 @@ export class RedisStore implements Store {
       .zRemRangeByScore(key, "-inf", now)
       .zRange(key, 0, -1)
       .exec()) as unknown as [number, string[]];
-    return members.map((m) => (JSON.parse(m) as { record: ShiftRecord }).record).sort((a, b) => a.at - b.at);
+    // What comes back from a shared store is checked, not trusted: a malformed record is skipped.
+    const records: ShiftRecord[] = [];
+    for (const member of members) {
+      let parsed: ReturnType<typeof ShiftRecordSchema.safeParse> | undefined;
+      try {
+        parsed = ShiftRecordSchema.safeParse((JSON.parse(member) as { record?: unknown }).record);
+      } catch {
+        parsed = undefined;
+      }
+      if (parsed?.success) records.push(parsed.data as ShiftRecord);
+      else log("warn", "store.record-malformed");
+    }
+    return records.sort((a, b) => a.at - b.at);
   }
 
   async forget(channel: string): Promise<number> {

@@ -179,6 +179,54 @@ async function keyChannel(bot: Conversation): Promise<string> {
   return channelKey(bot.config.secret, "slack", "C00FAKECHAN1");
 }
 
+describe("records read back from Redis", () => {
+  it("are checked with the zod schema: a tampered or malformed record is skipped, not trusted", async () => {
+    await redis.flush();
+    const a = await replica();
+    await ask(a.bot, "bed 12 Na 118");
+    const channel = await keyChannel(a.bot);
+    const { createClient } = await import("redis");
+    const c = createClient({ url: redis.url });
+    await c.connect();
+    const far = Date.now() + 3_600_000;
+    await c.zAdd(`solute:log:${channel}`, [
+      {
+        score: far,
+        value: JSON.stringify({
+          id: "x",
+          record: {
+            channel,
+            tag: "bed 12",
+            at: Date.now(),
+            inputs: { sodium: 9000 },
+            results: {},
+            flags: [],
+          },
+        }),
+      },
+      {
+        score: far,
+        value: JSON.stringify({
+          id: "y",
+          record: {
+            channel,
+            tag: "bed 12",
+            at: Date.now(),
+            inputs: { sodium: 120 },
+            results: {},
+            flags: [],
+            note: "free text",
+          },
+        }),
+      },
+      { score: far, value: "not json" },
+    ]);
+    await c.quit();
+    const records = await a.store.listRecords(channel, Date.now());
+    expect(records.map((r) => r.inputs.sodium)).toEqual([118]);
+  });
+});
+
 describe("Redis stopped and restarted", () => {
   it("calculations keep answering, the handover says the log is unavailable, and it recovers by itself", async (ctx) => {
     if (!redis.owned) ctx.skip();

@@ -1,0 +1,38 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { fmt, num, signed } from "../../core/format.js";
+
+describe("number formatting", () => {
+  it("fixed decimals", () => {
+    expect(fmt(286)).toBe("286.0");
+    expect(fmt(299.974022513821)).toBe("300.0");
+    expect(fmt(-15)).toBe("-15.0");
+    expect(fmt(-0.04)).toBe("0.0");
+    expect(fmt(0.05, 1)).toBe("0.1");
+    expect(fmt(1.4193548, 2)).toBe("1.42");
+    expect(fmt(540, 0)).toBe("540");
+  });
+  it("trailing zeros dropped", () => {
+    expect(num(128)).toBe("128");
+    expect(num(29.974022513821)).toBe("29.97");
+    expect(num(-0.001)).toBe("0");
+    expect(num(9.9950024987506)).toBe("10");
+  });
+  it("signed", () => {
+    expect(signed(13.0)).toBe("+13.0");
+    expect(signed(-4.8)).toBe("−4.8");
+    expect(signed(0)).toBe("0.0");
+  });
+  it("agrees with toFixed away from exact halves (property)", () => {
+    fc.assert(
+      fc.property(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.integer({ min: 0, max: 3 }), (v, d) => {
+        const f = 10 ** d;
+        const frac = Math.abs(v * f) % 1;
+        if (Math.abs(frac - 0.5) < 1e-6) return;
+        const expected = Number(v.toFixed(d));
+        expect(Number(fmt(v, d))).toBeCloseTo(Object.is(expected, -0) ? 0 : expected, 9);
+        expect(Number(num(v, d))).toBeCloseTo(expected, 9);
+      }),
+    );
+  });
+});
