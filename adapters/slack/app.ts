@@ -2,8 +2,9 @@
  * Solute on Slack, with @slack/bolt. The receiver handles transport only; the listeners turn
  * events into requests for the conversation and render its replies in Block Kit.
  *
- * - Slash command: ack at once, then answer privately (response_url) with a "Post to channel"
- *   button when the answer may be shared. Help and problems stay private.
+ * - Slash command: answered privately, in the acknowledgement when the answer is ready within
+ *   1.5 s (it nearly always is), else acknowledged first and answered through response_url; with
+ *   a "Post to channel" button when the answer may be shared. Help and problems stay private.
  * - Mention: answered in the thread of the message. Direct message: answered in the DM.
  * - Retried deliveries are de-duplicated through the store, so one reply across replicas.
  * - HTTP: signatures checked by Bolt; timestamps more than 5 minutes away in either direction are
@@ -21,6 +22,10 @@ import { ACTIONS, render } from "./render.js";
 
 /** Slack's own limit on request age, applied in both directions. */
 export const MAX_CLOCK_SKEW_S = 300;
+/** How long a slash command waits for its answer before acknowledging without it. */
+export const ACK_WITH_ANSWER_MS = 1500;
+const delay = (ms: number) =>
+  new Promise<undefined>((resolve) => setTimeout(() => resolve(undefined), ms).unref());
 /** How long an event ID is remembered for de-duplication. */
 const DEDUP_MS = 60 * 60 * 1000;
 
@@ -107,10 +112,21 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     bot.handle({ text, channel, platform: "slack" });
 
   app.command(config.command, async ({ command, ack, respond }) => {
-    await ack();
+    // The answer usually takes well under a millisecond: then it goes back in the acknowledgement
+    // itself, saving a round trip. If it is not ready in time (a slow store), the command is
+    // acknowledged first and answered through response_url — always inside Slack's 3 seconds.
     const text = slashText(command.text);
-    const reply = await answer(text, command.channel_id);
-    await respond({ response_type: "ephemeral", ...render(reply, { source: text, offerPost: true }) });
+    const answering = answer(text, command.channel_id).then((reply) => ({
+      response_type: "ephemeral" as const,
+      ...render(reply, { source: text, offerPost: true }),
+    }));
+    const quick = await Promise.race([answering, delay(ACK_WITH_ANSWER_MS)]);
+    if (quick) {
+      await ack(quick);
+      return;
+    }
+    await ack();
+    await respond(await answering);
   });
 
   app.event("app_mention", async ({ event, client }) => {

@@ -72,16 +72,14 @@ function mention(text: string, extra: Record<string, unknown> = {}) {
 }
 
 describe("slash command", () => {
-  it("acks at once, then answers privately with a button to post to the channel", async () => {
+  it("answers privately in the acknowledgement, with a button to post to the channel", async () => {
     const res = await postSigned(url, SECRET, slash(PANEL), "application/x-www-form-urlencoded");
     expect(res.status).toBe(200);
     expect(res.ms).toBeLessThan(3000);
-    const [call] = (await api.waitFor((c) => c.some((x) => x.path === "/respond/1"))).filter(
-      (c) => c.path === "/respond/1",
-    );
-    expect(call!.body.response_type).toBe("ephemeral");
-    expect(call!.body.text).toContain("Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
-    const blocks = call!.body.blocks as Parameters<typeof checkBlocks>[0];
+    const body = JSON.parse(res.text);
+    expect(body.response_type).toBe("ephemeral");
+    expect(body.text).toContain("Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
+    const blocks = body.blocks as Parameters<typeof checkBlocks>[0];
     expect(checkBlocks(blocks)).toEqual([]);
     expect(JSON.stringify(blocks)).toContain("solute_post");
     expect(JSON.stringify(blocks)).toContain("solute_working");
@@ -91,15 +89,30 @@ describe("slash command", () => {
   });
 
   it("help and problems stay private, without a post button", async () => {
-    await postSigned(url, SECRET, slash("help"), "application/x-www-form-urlencoded");
-    await postSigned(url, SECRET, slash("glucose 30"), "application/x-www-form-urlencoded");
-    const calls = (await api.waitFor((c) => c.filter((x) => x.path === "/respond/1").length === 2)).filter(
-      (c) => c.path === "/respond/1",
-    );
-    for (const c of calls) {
-      expect(c.body.response_type).toBe("ephemeral");
-      expect(JSON.stringify(c.body.blocks)).not.toContain("solute_post");
+    for (const text of ["help", "glucose 30"]) {
+      const body = JSON.parse(
+        (await postSigned(url, SECRET, slash(text), "application/x-www-form-urlencoded")).text,
+      );
+      expect(body.response_type).toBe("ephemeral");
+      expect(JSON.stringify(body.blocks)).not.toContain("solute_post");
     }
+  });
+
+  it("when the answer is slow, acks at once and answers through response_url", async () => {
+    const slow = store.getSettings.bind(store);
+    store.getSettings = async (c) => {
+      await new Promise((r) => setTimeout(r, 2000));
+      return slow(c);
+    };
+    const res = await postSigned(url, SECRET, slash(PANEL), "application/x-www-form-urlencoded");
+    expect(res.status).toBe(200);
+    expect(res.ms).toBeLessThan(2500);
+    expect(res.text).toBe("");
+    const call = (await api.waitFor((c) => c.some((x) => x.path === "/respond/1"))).find(
+      (c) => c.path === "/respond/1",
+    )!;
+    expect(call.body.response_type).toBe("ephemeral");
+    expect(call.body.text).toContain("gap 10.0");
   });
 
   it("the post-to-channel button posts the answer for the team and removes the private one", async () => {
@@ -251,12 +264,15 @@ describe("privacy", () => {
     logs.length = 0;
     const body = mention(`Mr Blackwood MRN 7712093 ${PANEL}`);
     await postSigned(url, SECRET, JSON.stringify(body), "application/json");
-    await postSigned(url, SECRET, slash(`DOB 3/4/1957 ${PANEL}`), "application/x-www-form-urlencoded");
-    await api.waitFor(
-      (c) => c.some((x) => x.path === "/api/chat.postMessage") && c.some((x) => x.path === "/respond/1"),
+    const slashed = await postSigned(
+      url,
+      SECRET,
+      slash(`DOB 3/4/1957 ${PANEL}`),
+      "application/x-www-form-urlencoded",
     );
+    await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"));
     const reply = api.calls.find((c) => c.path === "/api/chat.postMessage")!;
-    const privateAnswer = api.calls.find((c) => c.path === "/respond/1")!;
+    const privateAnswer = { body: JSON.parse(slashed.text) };
     for (const answer of [reply, privateAnswer]) {
       for (const secret of ["Blackwood", "7712093", "1957"])
         expect(JSON.stringify(answer.body)).not.toContain(secret);
