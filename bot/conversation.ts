@@ -8,6 +8,7 @@ import type { UnitSystem } from "../core/analytes.js";
 import { assess } from "../core/assess.js";
 import { fmt } from "../core/format.js";
 import { readMessage } from "../core/reader.js";
+import { loadUnits } from "../core/units.js";
 import { checkClaims } from "./check.js";
 import { computeReply } from "./compute.js";
 import type { Config } from "./config.js";
@@ -70,6 +71,7 @@ export class Conversation {
 
   async handle(request: Request): Promise<Reply> {
     const started = performance.now();
+    await loadUnits();
     const text = request.text.trim();
     if (text.length > MAX_MESSAGE_LENGTH) {
       const reply = emptyReply("nothing", "That message is too long");
@@ -79,7 +81,7 @@ export class Conversation {
       });
       return reply;
     }
-    const channel = channelKey(this.config.secret, request.platform, request.channel);
+    const channel = this.keyOf(request);
     if (!(await this.withinRate(channel))) {
       const reply = emptyReply("nothing", "Too many messages in this channel just now");
       reply.problems.push({
@@ -126,6 +128,19 @@ export class Conversation {
 
   /** Called after every calculation (the shift log hooks in here). */
   readonly afterCalculation: ((ctx: Context, reply: Reply) => Promise<void>)[] = [];
+
+  /** Channel keys, remembered (in this process only) so each message costs no HMAC. */
+  private readonly keys = new Map<string, string>();
+  private keyOf(request: Request): string {
+    const id = `${request.platform}\u0000${request.channel}`;
+    let key = this.keys.get(id);
+    if (key === undefined) {
+      if (this.keys.size >= 10_000) this.keys.clear();
+      key = channelKey(this.config.secret, request.platform, request.channel);
+      this.keys.set(id, key);
+    }
+    return key;
+  }
 
   /** Per-channel rate limit through the store, so every replica counts together; open if it fails. */
   private async withinRate(channel: string): Promise<boolean> {
@@ -205,7 +220,7 @@ export class Conversation {
     let text = ctx.rest;
     const expression = findExpression(text);
     if (expression) {
-      const evaluated = evaluateExpression(expression.text);
+      const evaluated = await evaluateExpression(expression.text);
       if (!evaluated.ok) {
         problems.push({ code: "expression.refused", message: evaluated.reason });
         text = `${text.slice(0, expression.start)} ${text.slice(expression.end)}`;

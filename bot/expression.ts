@@ -4,30 +4,14 @@
  * parenthesis, or + − × ÷. No symbols, functions, assignments, units, matrices, strings or powers
  * ever reach evaluation; length, size, depth and magnitude are bounded.
  */
-import {
-  addDependencies,
-  create,
-  divideDependencies,
-  type MathNode,
-  multiplyDependencies,
-  parseDependencies,
-  subtractDependencies,
-  unaryMinusDependencies,
-  unaryPlusDependencies,
-} from "mathjs";
+import type { MathNode } from "mathjs";
 
-const math = create(
-  {
-    parseDependencies: parseDependencies!,
-    addDependencies: addDependencies!,
-    subtractDependencies: subtractDependencies!,
-    multiplyDependencies: multiplyDependencies!,
-    divideDependencies: divideDependencies!,
-    unaryMinusDependencies: unaryMinusDependencies!,
-    unaryPlusDependencies: unaryPlusDependencies!,
-  },
-  { number: "number" },
-);
+/** Loaded on first use: the expression parser is not needed at start-up. */
+let loading: Promise<typeof import("./arithmetic.js")> | undefined;
+async function arithmetic() {
+  loading ??= import("./arithmetic.js");
+  return (await loading).math;
+}
 
 export const EXPRESSION_LIMITS = { length: 200, nodes: 64, depth: 16, magnitude: 1e6 } as const;
 
@@ -45,13 +29,14 @@ export function normaliseExpression(text: string): string {
     .trim();
 }
 
-export function evaluateExpression(input: string): ExpressionResult {
+export async function evaluateExpression(input: string): Promise<ExpressionResult> {
   if (input.length > EXPRESSION_LIMITS.length)
     return { ok: false, reason: `An expression may be at most ${EXPRESSION_LIMITS.length} characters.` };
   const text = normaliseExpression(input);
   if (!/^[\d.+\-*/()\s]+$/.test(text)) {
     return { ok: false, reason: "Only numbers, brackets and + − × ÷ are allowed in an expression." };
   }
+  const math = await arithmetic();
   let node: MathNode;
   try {
     node = math.parse(text);

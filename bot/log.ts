@@ -19,7 +19,8 @@ export type Level = "info" | "warn" | "error";
 export type LogSink = (line: string) => void;
 
 let sink: LogSink = (line) => process.stderr.write(`${line}\n`);
-let quiet = false;
+/** SOLUTE_LOG_LEVEL=warn drops the per-message info lines (a busy hospital may not want them). */
+let quiet = process.env.SOLUTE_LOG_LEVEL === "warn";
 
 /** Replaces where log lines go (tests capture them here). */
 export function setLogSink(next: LogSink): void {

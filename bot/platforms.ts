@@ -1,8 +1,9 @@
-/** Wires the chat platforms, the store and the HTTP server together for `npm start`. */
-import { createSlackAdapter } from "../adapters/slack/app.js";
+/**
+ * Wires the chat platforms, the store and the HTTP server together for `npm start`. Each platform's
+ * SDK and the Redis client are loaded only when configured, so start-up pays for what it uses.
+ */
 import { MemoryStore } from "../adapters/store/memory.js";
-import { RedisStore } from "../adapters/store/redis.js";
-import { createTeamsAdapter } from "../adapters/teams/app.js";
+import { loadUnits } from "../core/units.js";
 import type { Config } from "./config.js";
 import { Conversation } from "./conversation.js";
 import { log } from "./log.js";
@@ -12,6 +13,7 @@ import type { Store } from "./store.js";
 /** The store the configuration asks for: Redis when REDIS_URL is set, else in memory. */
 export async function makeStore(config: Config): Promise<Store> {
   if (!config.redisUrl) return new MemoryStore();
+  const { RedisStore } = await import("../adapters/store/redis.js");
   const store = new RedisStore(config.redisUrl);
   await store.connect();
   const ok = await store.ready();
@@ -32,6 +34,7 @@ export async function startPlatforms(config: Config): Promise<Running> {
   const stops: (() => Promise<void>)[] = [];
 
   if (config.slack) {
+    const { createSlackAdapter } = await import("../adapters/slack/app.js");
     const slack = createSlackAdapter({ config: config.slack, bot });
     if (slack.handler) routes["/slack/events"] = slack.handler;
     await slack.start();
@@ -40,6 +43,7 @@ export async function startPlatforms(config: Config): Promise<Running> {
   }
 
   if (config.teams) {
+    const { createTeamsAdapter } = await import("../adapters/teams/app.js");
     const teams = createTeamsAdapter({ config: config.teams, bot });
     routes["/api/messages"] = teams.handler;
     if (config.teams.local) {
@@ -53,6 +57,8 @@ export async function startPlatforms(config: Config): Promise<Running> {
 
   const server = await startServer({ port: config.port, host: config.host, routes, store });
   log("info", "ready", { count: server.port });
+  // Warm the unit machinery now, so the first message does not wait for it.
+  void loadUnits();
   return {
     port: server.port,
     stop: async () => {

@@ -152,7 +152,11 @@ export async function handover(ctx: Context, bot: Conversation): Promise<Reply> 
   if (!records) return unavailable("handover");
   const now = bot.clock();
   const byTag = new Map<string, ShiftRecord[]>();
-  for (const r of records) byTag.set(r.tag, [...(byTag.get(r.tag) ?? []), r]);
+  for (const r of records) {
+    const list = byTag.get(r.tag);
+    if (list) list.push(r);
+    else byTag.set(r.tag, [r]);
+  }
   const hours = Math.round(bot.config.shiftMs / HOUR);
   if (byTag.size === 0) {
     const reply = emptyReply("handover", `Handover: nothing logged in this channel in the last ${hours} h`);

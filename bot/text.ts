@@ -7,9 +7,15 @@ import type { Reply } from "./reply.js";
 export interface TextOptions {
   /** Include the working even when the user did not ask for it. */
   working?: boolean;
+  /**
+   * The short form, for a platform's notification fallback beside its rich format: headline,
+   * reading, facts, problems and the general caution.
+   */
+  brief?: boolean;
 }
 
 export function renderText(reply: Reply, options: TextOptions = {}): string {
+  if (options.brief) return briefText(reply);
   const lines: string[] = [reply.headline];
   if (reply.readAs) lines.push(`Read as: ${reply.readAs}`);
   if (reply.facts.length > 0) {
@@ -38,5 +44,15 @@ export function renderText(reply: Reply, options: TextOptions = {}): string {
     lines.push("");
     for (const c of reply.cautions) lines.push(`⚠ ${c}`);
   }
+  return lines.join("\n");
+}
+
+function briefText(reply: Reply): string {
+  const lines = [reply.headline];
+  if (reply.readAs) lines.push(`Read as: ${reply.readAs}`);
+  for (const f of reply.facts) lines.push(`${f.label}: ${f.value}`);
+  for (const p of reply.problems) lines.push(`! ${p.message}`);
+  const general = reply.cautions.at(-1);
+  if (general) lines.push(`⚠ ${general}`);
   return lines.join("\n");
 }

@@ -70,8 +70,11 @@ const N2_MM = molarMass({ N: 2 });
 const UREA_MM = molarMass({ C: 1, H: 4, N: 2, O: 1 });
 const ETHANOL_MM = molarMass({ C: 2, H: 6, O: 1 });
 
-/** mg/dL → mmol/L for a molar mass, used to state guards in the units they are published in. */
-const mgdl = (mg: number, mm: number) => mg * massToMolarFactor("mg/dL", mm);
+/**
+ * mg/dL → mmol/L for a molar mass (× 10 ÷ g/mol, by definition), used to state the typo guards in
+ * the units they are published in. Conversions of values go through units.ts (mathjs).
+ */
+const mgdl = (mg: number, mm: number) => (mg * 10) / mm;
 
 const ALCOHOL_UNITS: readonly Unit[] = ["mmol/L", "mg/dL", "mg/L", "g/L"];
 const ALCOHOL_SYSTEM: Record<UnitSystem, Unit> = { si: "mmol/L", conventional: "mg/dL" };

@@ -1,11 +1,27 @@
 /**
  * Units and conversions. Conversion factors are worked out once per (unit, molar mass) with
  * mathjs units — mass concentration divided by molar mass gives amount concentration — and cached,
- * so the hot path is a single multiplication. Only the unit factories of mathjs are imported.
+ * so the hot path is a single multiplication. mathjs (its unit factories only) is loaded by
+ * loadUnits(), which the conversation awaits once before its first message, so start-up does not
+ * wait for it.
  */
-import { create, type Unit as MathUnit, unitDependencies } from "mathjs";
+import type { Unit as MathUnit } from "mathjs";
 
-const math = create({ unitDependencies: unitDependencies! });
+let math: typeof import("./unit-math.js").math | undefined;
+let loading: Promise<void> | undefined;
+
+/** Loads the unit machinery; call (and await) once before converting. Idempotent. */
+export function loadUnits(): Promise<void> {
+  loading ??= import("./unit-math.js").then((m) => {
+    math = m.math;
+  });
+  return loading;
+}
+
+function units(): NonNullable<typeof math> {
+  if (!math) throw new Error("units are not loaded: await loadUnits() first");
+  return math;
+}
 
 /** The spellings we accept, normalised. UCUM codes for each are in UCUM_CODES. */
 export const UNITS = ["mmol/L", "mEq/L", "mg/dL", "mg/L", "g/L", "g/dL", "mOsm/kg", "mOsm/L"] as const;
@@ -44,7 +60,8 @@ export function massToMolarFactor(unit: Unit, molarMassGPerMol: number): number 
   let factor = cache.get(key);
   if (factor === undefined) {
     if (!MASS_UNITS.has(unit)) throw new Error(`not a mass concentration unit: ${unit}`);
-    const amount = math.unit(1, unit).divide(math.unit(molarMassGPerMol, "g/mol")) as MathUnit;
+    const m = units();
+    const amount = m.unit(1, unit).divide(m.unit(molarMassGPerMol, "g/mol")) as MathUnit;
     factor = amount.toNumber("mmol/L");
     cache.set(key, factor);
   }
@@ -56,7 +73,7 @@ export function massFactor(from: Unit, to: Unit): number {
   const key = `${from}>${to}`;
   let factor = cache.get(key);
   if (factor === undefined) {
-    factor = math.unit(1, from).toNumber(to);
+    factor = units().unit(1, from).toNumber(to);
     cache.set(key, factor);
   }
   return factor;

@@ -24,8 +24,13 @@ import { ACTIONS, render } from "./render.js";
 export const MAX_CLOCK_SKEW_S = 300;
 /** How long a slash command waits for its answer before acknowledging without it. */
 export const ACK_WITH_ANSWER_MS = 1500;
-const delay = (ms: number) =>
-  new Promise<undefined>((resolve) => setTimeout(() => resolve(undefined), ms).unref());
+function delay(ms: number): { promise: Promise<undefined>; cancel(): void } {
+  let handle: NodeJS.Timeout | undefined;
+  const promise = new Promise<undefined>((resolve) => {
+    handle = setTimeout(() => resolve(undefined), ms);
+  });
+  return { promise, cancel: () => clearTimeout(handle) };
+}
 /** How long an event ID is remembered for de-duplication. */
 const DEDUP_MS = 60 * 60 * 1000;
 
@@ -120,7 +125,9 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
       response_type: "ephemeral" as const,
       ...render(reply, { source: text, offerPost: true }),
     }));
-    const quick = await Promise.race([answering, delay(ACK_WITH_ANSWER_MS)]);
+    const timer = delay(ACK_WITH_ANSWER_MS);
+    const quick = await Promise.race([answering, timer.promise]);
+    timer.cancel();
     if (quick) {
       await ack(quick);
       return;

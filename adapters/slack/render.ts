@@ -128,5 +128,6 @@ export function render(reply: Reply, options: RenderOptions = {}): SlackMessage 
       last,
     );
   }
-  return { text: cut(renderText(reply, { working: showWorking }), LIMITS.fallbackText), blocks };
+  // The fallback is what notifications and old clients show; the blocks carry the whole answer.
+  return { text: cut(renderText(reply, { brief: true }), LIMITS.fallbackText), blocks };
 }

@@ -26,7 +26,7 @@ export class MemoryStore implements Store {
 
   async addRecord(record: ShiftRecord, ttlMs: number): Promise<void> {
     const list = this.records.get(record.channel) ?? [];
-    list.push({ value: structuredClone(record), expires: record.at + ttlMs });
+    list.push({ value: deepFreeze(structuredClone(record)), expires: record.at + ttlMs });
     this.records.set(record.channel, list);
   }
 
@@ -34,7 +34,8 @@ export class MemoryStore implements Store {
     const list = (this.records.get(channel) ?? []).filter((r) => r.expires > now);
     if (list.length === 0) this.records.delete(channel);
     else this.records.set(channel, list);
-    return list.map((r) => structuredClone(r.value)).sort((a, b) => a.at - b.at);
+    // Records are frozen when added, so they are handed out as they are, without copying.
+    return list.map((r) => r.value).sort((a, b) => a.at - b.at);
   }
 
   async forget(channel: string): Promise<number> {
@@ -74,4 +75,12 @@ export class MemoryStore implements Store {
     for (const [k, until] of this.seen) if (until <= now) this.seen.delete(k);
     for (const [k, c] of this.counters) if (c.expires <= now) this.counters.delete(k);
   }
+}
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === "object") {
+    for (const v of Object.values(value)) deepFreeze(v);
+    Object.freeze(value);
+  }
+  return value;
 }

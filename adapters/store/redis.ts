@@ -23,6 +23,8 @@ export class RedisStore implements Store {
   readonly kind = "redis" as const;
   private readonly client;
   private lastState: "up" | "down" = "up";
+  /** Members already parsed and checked (they never change once written), bounded. */
+  private readonly checked = new Map<string, ShiftRecord>();
 
   constructor(
     url: string,
@@ -90,14 +92,23 @@ export class RedisStore implements Store {
     // What comes back from a shared store is checked, not trusted: a malformed record is skipped.
     const records: ShiftRecord[] = [];
     for (const member of members) {
+      const known = this.checked.get(member);
+      if (known) {
+        records.push(known);
+        continue;
+      }
       let parsed: ReturnType<typeof ShiftRecordSchema.safeParse> | undefined;
       try {
         parsed = ShiftRecordSchema.safeParse((JSON.parse(member) as { record?: unknown }).record);
       } catch {
         parsed = undefined;
       }
-      if (parsed?.success) records.push(parsed.data as ShiftRecord);
-      else log("warn", "store.record-malformed");
+      if (parsed?.success) {
+        const record = Object.freeze(parsed.data as ShiftRecord);
+        if (this.checked.size >= 50_000) this.checked.clear();
+        this.checked.set(member, record);
+        records.push(record);
+      } else log("warn", "store.record-malformed");
     }
     return records.sort((a, b) => a.at - b.at);
   }

@@ -233,7 +233,7 @@ describe("mentions and direct messages", () => {
       (c) => c.path === "/api/chat.postMessage",
     )!;
     expect(post.body.thread_ts).toBe("1773327463.619929");
-    expect(post.body.text).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+    expect(JSON.stringify(post.body.blocks)).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
   });
 });
 

@@ -1,0 +1,21 @@
+/** The engine alone: read + compute + render over the invented corpus, best of three runs. */
+import { computeReply } from "../bot/compute.js";
+import { renderText } from "../bot/text.js";
+import { assess } from "../core/assess.js";
+import { readMessage } from "../core/reader.js";
+import { loadUnits } from "../core/units.js";
+import { CORPUS } from "./corpus.js";
+
+await loadUnits();
+
+function run(n: number): number {
+  const t = performance.now();
+  for (let i = 0; i < n; i++) {
+    const reading = readMessage(CORPUS[i % CORPUS.length]!);
+    renderText(computeReply(reading, assess(reading.inputs), false));
+  }
+  return (n / (performance.now() - t)) * 1000;
+}
+
+run(50_000);
+process.stdout.write(`${JSON.stringify({ best: Math.max(run(300_000), run(300_000), run(300_000)) })}\n`);
