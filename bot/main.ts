@@ -5,7 +5,7 @@
 import { startConsole } from "../adapters/console/app.js";
 import { type Config, ConfigError, loadConfig } from "./config.js";
 import { Conversation } from "./conversation.js";
-import { log, setQuiet } from "./log.js";
+import { errorCode, log, setQuiet } from "./log.js";
 import { makeStore, startPlatforms } from "./platforms.js";
 
 async function main(): Promise<void> {
@@ -28,10 +28,20 @@ async function main(): Promise<void> {
   }
   if (config.ephemeralSecret) log("warn", "config.ephemeral-secret");
   const running = await startPlatforms(config);
+  // SIGTERM: stop accepting, let requests in flight finish, close the store, exit 0.
+  let stopping = false;
   const shutdown = async (signal: string) => {
+    if (stopping) return;
+    stopping = true;
     log("info", "stopping", { code: signal });
-    await running.stop();
-    process.exit(0);
+    try {
+      await running.stop();
+      log("info", "stopped");
+      process.exit(0);
+    } catch (error) {
+      log("error", "stop-failed", { code: errorCode(error) });
+      process.exit(1);
+    }
   };
   process.once("SIGTERM", () => void shutdown("SIGTERM"));
   process.once("SIGINT", () => void shutdown("SIGINT"));

@@ -6,6 +6,7 @@ import { MemoryStore } from "../adapters/store/memory.js";
 import { loadUnits } from "../core/units.js";
 import type { Config } from "./config.js";
 import { Conversation } from "./conversation.js";
+import { drain } from "./inflight.js";
 import { log } from "./log.js";
 import { type Handler, startServer } from "./server.js";
 import type { Store } from "./store.js";
@@ -62,7 +63,9 @@ export async function startPlatforms(config: Config): Promise<Running> {
   return {
     port: server.port,
     stop: async () => {
+      // Stop accepting; let requests in flight finish, then the work they started; then close.
       await server.close();
+      await drain();
       for (const stop of stops) await stop();
       await store.close();
     },

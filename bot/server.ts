@@ -13,7 +13,7 @@ export type Handler = (req: IncomingMessage, res: ServerResponse) => void | Prom
 export interface HttpServer {
   server: Server;
   port: number;
-  close(): Promise<void>;
+  close(graceMs?: number): Promise<void>;
 }
 
 export async function startServer(options: {
@@ -60,9 +60,15 @@ export async function startServer(options: {
   return {
     server,
     port,
-    close: () =>
+    // Stops accepting at once; requests in flight finish (up to `graceMs`), then it resolves.
+    close: (graceMs = 10_000) =>
       new Promise<void>((resolve) => {
-        server.close(() => resolve());
+        const force = setTimeout(() => server.closeAllConnections(), graceMs);
+        force.unref();
+        server.close(() => {
+          clearTimeout(force);
+          resolve();
+        });
         server.closeIdleConnections();
       }),
   };

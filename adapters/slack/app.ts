@@ -14,6 +14,7 @@ import type { IncomingMessage, ServerResponse } from "node:http";
 import { App, HTTPReceiver, LogLevel, SocketModeReceiver } from "@slack/bolt";
 import type { SlackConfig } from "../../bot/config.js";
 import type { Conversation } from "../../bot/conversation.js";
+import { track } from "../../bot/inflight.js";
 import { errorCode, log } from "../../bot/log.js";
 import { channelKey } from "../../bot/privacy.js";
 import type { Reply } from "../../bot/reply.js";
@@ -22,6 +23,8 @@ import { ACTIONS, render } from "./render.js";
 
 /** Slack's own limit on request age, applied in both directions. */
 export const MAX_CLOCK_SKEW_S = 300;
+/** Largest request body accepted (Slack's payloads are a few kilobytes); larger gets 413. */
+export const MAX_BODY_BYTES = 256 * 1024;
 /** How long a slash command waits for its answer before acknowledging without it. */
 export const ACK_WITH_ANSWER_MS = 1500;
 function delay(ms: number): { promise: Promise<undefined>; cancel(): void } {
@@ -81,6 +84,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         endpoints: "/slack/events",
         logger: quietLogger,
         unhandledRequestTimeoutMillis: 2500,
+        bodyLimit: MAX_BODY_BYTES,
         // Answers that are not acknowledged in time still get a 200, within Slack's 3 seconds.
         processBeforeResponse: false,
       });
@@ -110,7 +114,8 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         return;
       }
     }
-    await next();
+    // Listeners run inside next(); tracking it lets shutdown wait for replies still being posted.
+    await track(() => next());
   });
 
   const answer = (text: string, channel: string): Promise<Reply> =>
@@ -121,7 +126,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     // itself, saving a round trip. If it is not ready in time (a slow store), the command is
     // acknowledged first and answered through response_url — always inside Slack's 3 seconds.
     const text = slashText(command.text);
-    const answering = answer(text, command.channel_id).then((reply) => ({
+    const answering = answer(text, command.channel_id ?? "").then((reply) => ({
       response_type: "ephemeral" as const,
       ...render(reply, { source: text, offerPost: true }),
     }));
@@ -217,6 +222,12 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
   const listener = (receiver as InstanceType<typeof HTTPReceiver>).requestListener;
   return {
     handler: (req, res) => {
+      if (Number(req.headers["content-length"] ?? 0) > MAX_BODY_BYTES) {
+        log("warn", "slack.refused", { platform: "slack", code: "too-large", status: 413 });
+        res.writeHead(413, { connection: "close" }).end();
+        req.resume();
+        return;
+      }
       // Bolt rejects old timestamps; a request from the future is refused here too.
       const ts = Number(req.headers["x-slack-request-timestamp"]);
       if (!Number.isFinite(ts) || Math.abs(clock() / 1000 - ts) > MAX_CLOCK_SKEW_S) {

@@ -92,7 +92,9 @@ export class RedisStore implements Store {
     // What comes back from a shared store is checked, not trusted: a malformed record is skipped.
     const records: ShiftRecord[] = [];
     for (const member of members) {
-      const known = this.checked.get(member);
+      // Members start {"id":"<uuid>", so the id is a cheap, exact cache key.
+      const id = member.startsWith('{"id":"') ? member.slice(7, 43) : member;
+      const known = this.checked.get(id);
       if (known) {
         records.push(known);
         continue;
@@ -106,7 +108,7 @@ export class RedisStore implements Store {
       if (parsed?.success) {
         const record = Object.freeze(parsed.data as ShiftRecord);
         if (this.checked.size >= 50_000) this.checked.clear();
-        this.checked.set(member, record);
+        this.checked.set(id, record);
         records.push(record);
       } else log("warn", "store.record-malformed");
     }
