@@ -65,8 +65,11 @@ export async function startServer(options: {
       new Promise<void>((resolve) => {
         const force = setTimeout(() => server.closeAllConnections(), graceMs);
         force.unref();
+        // Connections that finish their request become idle: close them as they do.
+        const sweep = setInterval(() => server.closeIdleConnections(), 50);
         server.close(() => {
           clearTimeout(force);
+          clearInterval(sweep);
           resolve();
         });
         server.closeIdleConnections();

@@ -142,6 +142,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
   });
 
   app.event("app_mention", async ({ event, client }) => {
+    if (!event.channel) return;
     const text = cleanText(event.text ?? "");
     const reply = await answer(text, event.channel);
     await client.chat.postMessage({
@@ -153,7 +154,13 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
 
   app.message(async ({ message, client }) => {
     // Direct messages only; the bot's own and other bots' messages and edits are left alone.
-    if (message.channel_type !== "im" || message.subtype !== undefined || "bot_id" in message) return;
+    if (
+      message.channel_type !== "im" ||
+      message.subtype !== undefined ||
+      "bot_id" in message ||
+      !message.channel
+    )
+      return;
     const text = cleanText(("text" in message ? message.text : "") ?? "");
     const reply = await answer(text, message.channel);
     await client.chat.postMessage({ channel: message.channel, ...render(reply, { source: text }) });

@@ -11,6 +11,10 @@ export interface FakeConnector {
   serviceUrl: string;
   sent: Sent[];
   failNext(status: number, times?: number): void;
+  /** Delay every answer by this many milliseconds. */
+  slow(ms: number): void;
+  /** Every request that reached it, failed ones included. */
+  attempts: number;
   waitFor(n: number, timeoutMs?: number): Promise<Sent[]>;
   close(): Promise<void>;
 }
@@ -18,12 +22,16 @@ export interface FakeConnector {
 export async function fakeConnector(): Promise<FakeConnector> {
   const sent: Sent[] = [];
   let failures = { status: 0, times: 0 };
+  let delayMs = 0;
+  const state = { attempts: 0 };
   const server: Server = createServer((req, res) => {
     let raw = "";
     req.on("data", (d) => {
       raw += d;
     });
-    req.on("end", () => {
+    req.on("end", async () => {
+      state.attempts++;
+      if (delayMs) await new Promise((r) => setTimeout(r, delayMs));
       if (failures.times > 0) {
         failures.times--;
         res.writeHead(failures.status, { "retry-after": "0" }).end();
@@ -41,6 +49,12 @@ export async function fakeConnector(): Promise<FakeConnector> {
     sent,
     failNext(status, times = 1) {
       failures = { status, times };
+    },
+    slow(ms) {
+      delayMs = ms;
+    },
+    get attempts() {
+      return state.attempts;
     },
     async waitFor(n, timeoutMs = 5000) {
       const until = Date.now() + timeoutMs;
