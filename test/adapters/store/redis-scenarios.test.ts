@@ -239,10 +239,16 @@ describe("Redis stopped and restarted", () => {
     expect(calc.notes.join()).toMatch(/not logged/);
     expect((await ask(a.bot, "handover")).problems[0]!.code).toBe("store.unavailable");
     expect(await a.store.ready()).toBe(false);
+    // Readiness says so while liveness stays up.
+    const probe = await startServer({ port: 0, host: "127.0.0.1", routes: {}, store: a.store });
+    expect((await fetch(`http://127.0.0.1:${probe.port}/readyz`)).status).toBe(503);
+    expect((await fetch(`http://127.0.0.1:${probe.port}/healthz`)).status).toBe(200);
     await redis.restart();
     const until = Date.now() + 10_000;
     while (!(await a.store.ready()) && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
     expect(await a.store.ready()).toBe(true);
+    expect((await fetch(`http://127.0.0.1:${probe.port}/readyz`)).status).toBe(200);
+    await probe.close();
     await ask(a.bot, "bed 12 Na 124");
     // Redis kept nothing on disk, so the log starts again from the restart.
     expect((await ask(a.bot, "handover")).headline).toBe("Handover: 1 case, 1 calculation in the last 16 h");
