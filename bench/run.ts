@@ -401,7 +401,7 @@ async function main(): Promise<void> {
     mkdirSync("docs", { recursive: true });
     writeFileSync(
       "docs/benchmarks.md",
-      `# Benchmarks\n\nWritten by \`npm run bench\` on ${new Date().toISOString().slice(0, 10)}, on ${machine}.\nServers run from the production build (\`dist/\`) in their own processes; load from autocannon on\n127.0.0.1; ratios compare with bare reference apps (\`bench/bare/\`) measured in the same run.\n\n${table}\n`,
+      `# Benchmarks\n\nWritten by \`npm run bench\` on ${new Date().toISOString().slice(0, 10)}, on ${machine}.\nServers run from the production build (\`dist/\`) in their own processes; load from autocannon on\n127.0.0.1; ratios compare with bare reference apps (\`bench/bare/\`) measured in the same run.\n\n${table}\n\n${readFileSync("bench/notes.md", "utf8")}`,
     );
   }
   process.exitCode = rows.every((r) => r.met) ? 0 : 1;

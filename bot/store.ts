@@ -53,7 +53,7 @@ export interface Store {
   close(): Promise<void>;
 }
 
-const RESULT_KEYS = [
+export const RESULT_KEYS = [
   "calculatedOsmolality",
   "effectiveOsmolality",
   "osmolalGap",

@@ -8,14 +8,23 @@
  * it; the client reconnects by itself.
  *
  *   solute:settings:<channel>   string (JSON settings), no expiry
- *   solute:log:<channel>        sorted set, score = the record's expiry time, member = JSON record
+ *   solute:log:<channel>        sorted set, score = the record's expiry time, member = a compact
+ *                               JSON array: [id, tag, time, [input index, value, …],
+ *                               [result index, value, …], [flags]] (the channel is the key)
  *   solute:seen:<key>           "1" with a TTL (SET NX PX)
  *   solute:rate:<key>:<window>  counter with a TTL
  */
-import { randomUUID } from "node:crypto";
+import { randomBytes } from "node:crypto";
 import { createClient } from "redis";
 import { errorCode, log } from "../../bot/log.js";
-import { type ChannelSettings, type ShiftRecord, ShiftRecordSchema, type Store } from "../../bot/store.js";
+import {
+  type ChannelSettings,
+  RESULT_KEYS,
+  type ShiftRecord,
+  ShiftRecordSchema,
+  type Store,
+} from "../../bot/store.js";
+import { INPUT_KEYS } from "../../core/inputs.js";
 
 const P = "solute:";
 
@@ -72,11 +81,9 @@ export class RedisStore implements Store {
   async addRecord(record: ShiftRecord, ttlMs: number): Promise<void> {
     const key = `${P}log:${record.channel}`;
     const expires = record.at + ttlMs;
-    // The uuid keeps two identical calculations apart; it identifies nothing.
-    const member = JSON.stringify({ id: randomUUID(), record });
     await this.client
       .multi()
-      .zAdd(key, { score: expires, value: member })
+      .zAdd(key, { score: expires, value: encode(record) })
       .pExpireAt(key, expires, "GT")
       .pExpireAt(key, expires, "NX")
       .exec();
@@ -92,20 +99,14 @@ export class RedisStore implements Store {
     // What comes back from a shared store is checked, not trusted: a malformed record is skipped.
     const records: ShiftRecord[] = [];
     for (const member of members) {
-      // Members start {"id":"<uuid>", so the id is a cheap, exact cache key.
-      const id = member.startsWith('{"id":"') ? member.slice(7, 43) : member;
+      const id = member.slice(0, ID_END);
       const known = this.checked.get(id);
       if (known) {
         records.push(known);
         continue;
       }
-      let parsed: ReturnType<typeof ShiftRecordSchema.safeParse> | undefined;
-      try {
-        parsed = ShiftRecordSchema.safeParse((JSON.parse(member) as { record?: unknown }).record);
-      } catch {
-        parsed = undefined;
-      }
-      if (parsed?.success) {
+      const parsed = ShiftRecordSchema.safeParse(decode(member, channel));
+      if (parsed.success) {
         const record = Object.freeze(parsed.data as ShiftRecord);
         if (this.checked.size >= 50_000) this.checked.clear();
         this.checked.set(id, record);
@@ -148,5 +149,59 @@ export class RedisStore implements Store {
     } catch {
       this.client.destroy();
     }
+  }
+}
+
+/** Length of `["<12 hex>"` — the start of every member, and its cache key. */
+const ID_END = 16;
+
+/** A record as a compact JSON array; the random id keeps two identical calculations apart. */
+function encode(record: ShiftRecord): string {
+  const inputs: number[] = [];
+  INPUT_KEYS.forEach((k, i) => {
+    const v = record.inputs[k];
+    if (v !== undefined) inputs.push(i, v);
+  });
+  const results: number[] = [];
+  RESULT_KEYS.forEach((k, i) => {
+    const v = record.results[k];
+    if (v !== undefined) results.push(i, v);
+  });
+  return JSON.stringify([
+    randomBytes(6).toString("hex"),
+    record.tag,
+    record.at,
+    inputs,
+    results,
+    record.flags,
+  ]);
+}
+
+/** The record back from its array, or something the schema will refuse. */
+function decode(member: string, channel: string): unknown {
+  try {
+    const [, tag, at, inputs, results, flags] = JSON.parse(member) as [
+      string,
+      unknown,
+      unknown,
+      number[],
+      number[],
+      unknown,
+    ];
+    const pairs = (list: number[], keys: readonly string[]) => {
+      const out: Record<string, unknown> = {};
+      for (let i = 0; i + 1 < list.length; i += 2) out[keys[list[i]!] ?? "?"] = list[i + 1];
+      return out;
+    };
+    return {
+      channel,
+      tag,
+      at,
+      inputs: pairs(inputs, INPUT_KEYS),
+      results: pairs(results, RESULT_KEYS),
+      flags,
+    };
+  } catch {
+    return undefined;
   }
 }
