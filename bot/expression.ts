@@ -59,7 +59,10 @@ export async function evaluateExpression(input: string): Promise<ExpressionResul
         bad = "Numbers in an expression must be plain and below a million.";
       }
     } else if (n.type === "OperatorNode") {
-      if (!OPERATORS.has((n as unknown as { fn: string }).fn)) bad = "Only + − × ÷ are allowed.";
+      const op = n as unknown as { fn: string; implicit?: boolean };
+      if (!OPERATORS.has(op.fn)) bad = "Only + − × ÷ are allowed.";
+      // "2(128)" is read by mathjs as 2 × 128; say the × instead of guessing it was meant.
+      else if (op.implicit) bad = "Write the × between a number and a bracket, like 2 × (128 + 4).";
     } else if (n.type !== "ParenthesisNode") {
       bad = "Only numbers, brackets and + − × ÷ are allowed in an expression.";
     }

@@ -220,6 +220,8 @@ describe("the expression sandbox", () => {
     `${"(".repeat(30)}1${")".repeat(30)}`,
     `${"1+".repeat(150)}1`,
     "'a'",
+    "2(128)",
+    "(1)(2)",
   ])("refuses %s", async (expr) => {
     expect((await evaluateExpression(expr)).ok).toBe(false);
   });
