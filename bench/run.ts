@@ -146,6 +146,19 @@ async function engine(): Promise<void> {
   log(`engine: ${Math.round(best)} msg/s`);
 }
 
+/** The environment for a server (Solute or the bare Bolt app) serving Slack over HTTP. */
+function slackEnv(p: number, connector: string): Record<string, string> {
+  return {
+    PORT: String(p),
+    HOST: "127.0.0.1",
+    SLACK_BOT_TOKEN: "xoxb-bench",
+    SLACK_SIGNING_SECRET: SIGNING,
+    SLACK_API_URL: `${connector}/api/`,
+    SOLUTE_SECRET: "bench-secret-0123456789",
+    SOLUTE_RATE_LIMIT: "100000",
+  };
+}
+
 // --- Slack HTTP path --------------------------------------------------------------------------
 async function slack(connector: string): Promise<void> {
   const body = new URLSearchParams({
@@ -164,15 +177,7 @@ async function slack(connector: string): Promise<void> {
     "x-slack-request-timestamp": String(ts),
     "x-slack-signature": `v0=${createHmac("sha256", SIGNING).update(`v0:${ts}:${body}`).digest("hex")}`,
   };
-  const env = (p: number) => ({
-    PORT: String(p),
-    HOST: "127.0.0.1",
-    SLACK_BOT_TOKEN: "xoxb-bench",
-    SLACK_SIGNING_SECRET: SIGNING,
-    SLACK_API_URL: `${connector}/api/`,
-    SOLUTE_SECRET: "bench-secret-0123456789",
-    SOLUTE_RATE_LIMIT: "100000",
-  });
+  const env = (p: number) => slackEnv(p, connector);
   // The same answer as Solute gives, for a bare app that only sends it (its size, not its work).
   await loadUnits();
   const text = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
@@ -274,14 +279,7 @@ async function startup(connector: string): Promise<void> {
       const { child, ms } = await start(
         process.execPath,
         [script],
-        {
-          PORT: String(p),
-          HOST: "127.0.0.1",
-          SLACK_BOT_TOKEN: "xoxb-bench",
-          SLACK_SIGNING_SECRET: SIGNING,
-          SLACK_API_URL: `${connector}/api/`,
-          SOLUTE_SECRET: "bench-secret-0123456789",
-        },
+        slackEnv(p, connector),
         /"event":"ready"/,
       );
       times[name]!.push(ms);
