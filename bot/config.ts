@@ -28,6 +28,7 @@ const EnvSchema = z.object({
   SOLUTE_OSMOLALITY_RANGE: range.default({ low: 275, high: 295 }),
   SOLUTE_DEFAULT_UNITS: z.enum(["si", "conventional"]).optional(),
   SOLUTE_RATE_LIMIT: z.coerce.number().int().min(1).max(100000).default(120),
+  SOLUTE_LOG_LEVEL: z.enum(["info", "warn"]).default("info"),
   REDIS_URL: z.string().url("must be a redis:// URL").optional(),
   // Slack
   SLACK_BOT_TOKEN: z.string().startsWith("xoxb-", "must start with xoxb-").optional(),
@@ -74,6 +75,7 @@ export interface Config {
   osmolalityRange: { low: number; high: number };
   defaultUnits?: "si" | "conventional";
   rateLimitPerMinute: number;
+  logLevel: "info" | "warn";
   redisUrl?: string;
   slack?: SlackConfig;
   teams?: TeamsConfig;
@@ -152,6 +154,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     shiftMs: e.SOLUTE_SHIFT_HOURS * 3_600_000,
     osmolalityRange: e.SOLUTE_OSMOLALITY_RANGE,
     rateLimitPerMinute: e.SOLUTE_RATE_LIMIT,
+    logLevel: e.SOLUTE_LOG_LEVEL,
     ...(e.SOLUTE_DEFAULT_UNITS && { defaultUnits: e.SOLUTE_DEFAULT_UNITS }),
     ...(e.REDIS_URL && { redisUrl: e.REDIS_URL }),
     ...(slack && { slack }),

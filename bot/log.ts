@@ -19,15 +19,17 @@ export type Level = "info" | "warn" | "error";
 export type LogSink = (line: string) => void;
 
 let sink: LogSink = (line) => process.stderr.write(`${line}\n`);
-/** SOLUTE_LOG_LEVEL=warn drops the per-message info lines (a busy hospital may not want them). */
-let quiet = process.env.SOLUTE_LOG_LEVEL === "warn";
+let quiet = false;
 
 /** Replaces where log lines go (tests capture them here). */
 export function setLogSink(next: LogSink): void {
   sink = next;
 }
 
-/** Silences info lines (the terminal chat keeps the screen for the conversation). */
+/**
+ * Silences info lines: the terminal chat keeps the screen for the conversation, and
+ * SOLUTE_LOG_LEVEL=warn drops the per-message lines on a busy server.
+ */
 export function setQuiet(value: boolean): void {
   quiet = value;
 }

@@ -26,6 +26,7 @@ async function main(): Promise<void> {
     await store.close();
     return;
   }
+  setQuiet(config.logLevel === "warn");
   if (config.ephemeralSecret) log("warn", "config.ephemeral-secret");
   const running = await startPlatforms(config);
   // SIGTERM: stop accepting, let requests in flight finish, close the store, exit 0.

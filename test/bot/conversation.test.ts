@@ -274,3 +274,16 @@ describe("logs", () => {
     expect(JSON.parse(lines[0]!).code).toBe("unprintable");
   });
 });
+
+describe("configuration", () => {
+  it("names the setting that is wrong", () => {
+    expect(() => loadConfig({ SOLUTE_LOG_LEVEL: "loud" })).toThrow(/SOLUTE_LOG_LEVEL/);
+    expect(() => loadConfig({ SOLUTE_OSMOLALITY_RANGE: "295-275" })).toThrow(/SOLUTE_OSMOLALITY_RANGE/);
+    expect(() => loadConfig({ REDIS_URL: "redis://127.0.0.1:6379" })).toThrow(/SOLUTE_SECRET/);
+    expect(() => loadConfig({ NODE_ENV: "production" })).toThrow(/SOLUTE_SECRET/);
+    expect(loadConfig({ SOLUTE_OSMOLALITY_RANGE: "280-300" }).osmolalityRange).toEqual({
+      low: 280,
+      high: 300,
+    });
+  });
+});
