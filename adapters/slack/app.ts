@@ -166,7 +166,16 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     await client.chat.postMessage({ channel: message.channel, ...render(reply, { source: text }) });
   });
 
-  app.action(ACTIONS.post, async ({ ack, body, respond, action }) => {
+  // One listener for both buttons: Bolt runs every listener's middleware on every request, so
+  // fewer listeners is less work per message.
+  app.action(/^solute_(post|working)$/, async (args) => {
+    const id = (args.action as { action_id?: string }).action_id;
+    await (id === ACTIONS.post ? postToChannel(args) : showWorking(args));
+  });
+
+  type ActionArgs = Parameters<Parameters<typeof app.action>[1]>[0];
+
+  async function postToChannel({ ack, body, respond, action }: ActionArgs) {
     await ack();
     const source = "value" in action ? (action.value ?? "") : "";
     const channel = body.channel?.id ?? "";
@@ -181,9 +190,9 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     }
     await respond({ response_type: "in_channel", replace_original: false, ...render(reply, { source }) });
     await respond({ delete_original: true });
-  });
+  }
 
-  app.action(ACTIONS.working, async ({ ack, body, respond, action, client }) => {
+  async function showWorking({ ack, body, respond, action, client }: ActionArgs) {
     await ack();
     const source = "value" in action ? (action.value ?? "") : "";
     const channel = body.channel?.id ?? "";
@@ -205,7 +214,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         ...message,
       });
     }
-  });
+  }
 
   app.error(async (error) => {
     log("error", "slack.listener-failed", {

@@ -9,8 +9,12 @@ import { type Block, LIMITS } from "./limits.js";
 
 export const ACTIONS = { post: "solute_post", working: "solute_working" } as const;
 
+const NEEDS_ESCAPE = /[&<>]/;
+
 /** Slack's mrkdwn needs &, < and > escaped. */
 export function escapeMrkdwn(text: string): string {
+  // Most lines have nothing to escape; skip the three replacements for them.
+  if (!NEEDS_ESCAPE.test(text)) return text;
   return text.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;");
 }
 
