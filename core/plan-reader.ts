@@ -1,7 +1,7 @@
 /**
  * Reads a planning request: "plan Na 118 70 kg woman elderly 1 L 0.9% NaCl", "plan Na 160 TBW 34 L
  * free water", "plan bed 12 Na 121 80 kg man adult 500 mL fluid Na 77 K 20". The words it takes
- * are removed; the rest (sodium, case tag, identifiers, unknown words) goes to the ordinary reader.
+ * are blanked; the rest (sodium, case tag, identifiers, unknown words) goes to the ordinary reader.
  * Every regular expression here is linear: no nested or overlapping repetition.
  */
 import type { AgeBand, Sex } from "./fluids.js";
@@ -53,7 +53,10 @@ export function readPlan(text: string): PlanReading {
   const plan: PlanInputs = { freeWater: false, highRisk: false };
   const take = (re: RegExp): RegExpExecArray | null => {
     const m = re.exec(rest);
-    if (m) rest = rest.slice(0, m.index) + " ".repeat(m[0].length) + rest.slice(m.index + m[0].length);
+    // Each word taken becomes "+" (a filler the reader skips), so the reader still counts words
+    // as they were written when it names one it did not understand.
+    const blank = (span: string) => span.replace(/\S+/g, (w) => `+${" ".repeat(w.length - 1)}`);
+    if (m) rest = rest.slice(0, m.index) + blank(m[0]) + rest.slice(m.index + m[0].length);
     return m;
   };
 
