@@ -163,11 +163,16 @@ export function oracle(text: string): number | undefined {
   return i === s.length ? v : undefined;
 }
 
-function timed(target: string, report: FuzzReport, limitMs: number, fn: () => string | undefined): void {
+async function timed(
+  target: string,
+  report: FuzzReport,
+  limitMs: number,
+  fn: () => string | undefined | Promise<string | undefined>,
+): Promise<void> {
   const t = performance.now();
   let failure: string | undefined;
   try {
-    failure = fn();
+    failure = await fn();
   } catch (error) {
     failure = `threw ${(error as Error).name}`;
   }
@@ -192,7 +197,7 @@ export async function runFuzz(options: {
   const reader: FuzzReport = { target: "reader", runs: 0, failures: [], maxMs: 0 };
   for (const text of fc.sample(message, { numRuns: Math.round(options.count * share.reader), seed })) {
     if (Date.now() > deadline) break;
-    timed("reader", reader, 200, () => {
+    await timed("reader", reader, 200, () => {
       const r = readMessage(text);
       // Either usable inputs or a clear problem; never a silent nothing for text with a digit.
       if (
@@ -217,25 +222,18 @@ export async function runFuzz(options: {
     seed: seed + 1,
   })) {
     if (Date.now() > deadline) break;
-    const t = performance.now();
-    let failure: string | undefined;
-    try {
+    await timed("sandbox", sandbox, 200, async () => {
       const r = await evaluateExpression(text);
       const expected = oracle(text);
+      let failure: string | undefined;
       if (r.ok) {
         if (expected === undefined || !Number.isFinite(expected))
           failure = "evaluated what the oracle refuses";
         else if (Math.abs(r.value - expected) > 1e-9 * Math.max(1, Math.abs(expected)))
           failure = "wrong value";
       } else if (!r.reason) failure = "refused without a reason";
-    } catch (error) {
-      failure = `threw ${(error as Error).name}`;
-    }
-    const ms = performance.now() - t;
-    sandbox.maxMs = Math.max(sandbox.maxMs, ms);
-    sandbox.runs++;
-    if (ms > 200) failure = `took ${ms.toFixed(0)} ms`;
-    if (failure && sandbox.failures.length < 20) sandbox.failures.push(`${failure}: ${JSON.stringify(text)}`);
+      return failure && `${failure}: ${JSON.stringify(text)}`;
+    });
   }
   reports.push(sandbox);
 
@@ -298,14 +296,14 @@ export async function runFuzz(options: {
   const teamsInputs = fc.sample(activity, { numRuns: Math.floor(n / 2), seed: seed + 3 });
   for (const text of slackInputs) {
     if (Date.now() > deadline) break;
-    timed("slack", adapters, 200, () => {
+    await timed("slack", adapters, 200, () => {
       const out = slackText(text);
       return typeof out === "string" && !/<@[A-Z0-9]+>/.test(out) ? undefined : "mention left in text";
     });
   }
   for (const a of teamsInputs) {
     if (Date.now() > deadline) break;
-    timed("teams", adapters, 200, () => {
+    await timed("teams", adapters, 200, () => {
       const text = teamsText(a.text ?? "");
       const channel = channelOf(a);
       mentionsBot(a);

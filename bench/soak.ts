@@ -112,77 +112,70 @@ export async function runSoak(options: {
 
     let n = 0;
     const base = `http://127.0.0.1:${port}`;
-    const slack = autocannon({
-      url: `${base}/slack/events`,
-      connections: 8,
-      duration: options.seconds,
-      overallRate: options.rate / 2,
-      requests: [
-        {
-          method: "POST",
-          setupRequest: (req) => {
-            const i = n++;
-            let body: string;
-            let type: string;
-            if (i % 3 === 0) {
-              body = new URLSearchParams({
-                command: "/solute",
-                text: text(i),
-                channel_id: `C0SOAK${i % 5}`,
-                user_id: "U0SOAKUSER",
-                team_id: "T0SOAK",
-                response_url: `http://127.0.0.1:${fakePort}/respond`,
-                trigger_id: "t",
-                token: "x",
-              }).toString();
-              type = "application/x-www-form-urlencoded";
-            } else {
-              body = JSON.stringify({
-                type: "event_callback",
-                team_id: "T0SOAK",
-                api_app_id: "A0SOAK",
-                event_id: `Ev0SOAK${i}`,
-                event_time: 1,
-                event: {
-                  type: "app_mention",
-                  user: "U0SOAKUSER",
-                  text: `<@U0BENCHBOT> ${text(i)}`,
-                  ts: `${1700000000 + i}.000100`,
-                  channel: `C0SOAK${i % 5}`,
-                  event_ts: `${1700000000 + i}.000100`,
-                },
-              });
-              type = "application/json";
-            }
-            return { ...req, body, headers: { ...req.headers, "content-type": type, ...sign(body) } };
+    /** Half the rate at one endpoint; `build` makes each request's body and headers afresh. */
+    const traffic = (path: string, build: (i: number) => { body: string; headers: Record<string, string> }) =>
+      autocannon({
+        url: `${base}${path}`,
+        connections: 8,
+        duration: options.seconds,
+        overallRate: options.rate / 2,
+        requests: [
+          {
+            method: "POST",
+            setupRequest: (req) => {
+              const { body, headers } = build(n++);
+              return { ...req, body, headers: { ...req.headers, ...headers } };
+            },
           },
-        },
-      ],
+        ],
+      });
+    const slack = traffic("/slack/events", (i) => {
+      let body: string;
+      let type: string;
+      if (i % 3 === 0) {
+        body = new URLSearchParams({
+          command: "/solute",
+          text: text(i),
+          channel_id: `C0SOAK${i % 5}`,
+          user_id: "U0SOAKUSER",
+          team_id: "T0SOAK",
+          response_url: `http://127.0.0.1:${fakePort}/respond`,
+          trigger_id: "t",
+          token: "x",
+        }).toString();
+        type = "application/x-www-form-urlencoded";
+      } else {
+        body = JSON.stringify({
+          type: "event_callback",
+          team_id: "T0SOAK",
+          api_app_id: "A0SOAK",
+          event_id: `Ev0SOAK${i}`,
+          event_time: 1,
+          event: {
+            type: "app_mention",
+            user: "U0SOAKUSER",
+            text: `<@U0BENCHBOT> ${text(i)}`,
+            ts: `${1700000000 + i}.000100`,
+            channel: `C0SOAK${i % 5}`,
+            event_ts: `${1700000000 + i}.000100`,
+          },
+        });
+        type = "application/json";
+      }
+      return { body, headers: { "content-type": type, ...sign(body) } };
     });
-    const teams = autocannon({
-      url: `${base}/api/messages`,
-      connections: 8,
-      duration: options.seconds,
-      overallRate: options.rate / 2,
-      requests: [
-        {
-          method: "POST",
-          setupRequest: (req) => {
-            const i = n++;
-            const body = JSON.stringify({
-              type: "message",
-              id: `soak-${i}`,
-              channelId: "msteams",
-              serviceUrl: `http://127.0.0.1:${fakePort}/`,
-              text: text(i),
-              from: { id: "29:soakuser", name: "Soak User" },
-              recipient: { id: "28:soakbot" },
-              conversation: { id: `a:soak${i % 5}`, conversationType: "personal" },
-            });
-            return { ...req, body, headers: { ...req.headers, "content-type": "application/json" } };
-          },
-        },
-      ],
+    const teams = traffic("/api/messages", (i) => {
+      const body = JSON.stringify({
+        type: "message",
+        id: `soak-${i}`,
+        channelId: "msteams",
+        serviceUrl: `http://127.0.0.1:${fakePort}/`,
+        text: text(i),
+        from: { id: "29:soakuser", name: "Soak User" },
+        recipient: { id: "28:soakbot" },
+        conversation: { id: `a:soak${i % 5}`, conversationType: "personal" },
+      });
+      return { body, headers: { "content-type": "application/json" } };
     });
     const [s, t] = await Promise.all([slack, teams]);
     await new Promise((r) => setTimeout(r, 500));
