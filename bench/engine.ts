@@ -2,7 +2,7 @@
 import { computeReply } from "../bot/compute.js";
 import { renderText } from "../bot/text.js";
 import { assess } from "../core/assess.js";
-import { readMessage } from "../core/reader.js";
+import { readMessage } from "../core/reader/index.js";
 import { loadUnits } from "../core/units.js";
 import { CORPUS } from "./corpus.js";
 

@@ -10,7 +10,7 @@ import fc from "fast-check";
 import { cleanText as slackText } from "../adapters/slack/events.js";
 import { channelOf, mentionsBot, cleanText as teamsText } from "../adapters/teams/events.js";
 import { evaluateExpression, normaliseExpression } from "../bot/expression.js";
-import { readMessage, renderInputs } from "../core/reader.js";
+import { readMessage, renderInputs } from "../core/reader/index.js";
 import { loadUnits } from "../core/units.js";
 
 export interface FuzzReport {
@@ -60,7 +60,7 @@ const WORDS = [
 ];
 
 /** Messages made of the words people type, numbers of every shape, and noise. */
-const message = fc.oneof(
+export const message = fc.oneof(
   fc.string({ maxLength: 200 }),
   fc
     .array(

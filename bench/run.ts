@@ -19,7 +19,7 @@ import { setLogSink } from "../bot/log.js";
 import { channelKey } from "../bot/privacy.js";
 import { recordOf } from "../bot/shift.js";
 import { assess } from "../core/assess.js";
-import { readMessage } from "../core/reader.js";
+import { readMessage } from "../core/reader/index.js";
 import { loadUnits } from "../core/units.js";
 import { startRedis } from "../test/helpers/redis.js";
 import { CORPUS } from "./corpus.js";

@@ -7,8 +7,8 @@
 import type { Assessment } from "../core/assess.js";
 import { fmt } from "../core/format.js";
 import { dorwartChalmers, glucoseMgPerDl, HILLIER_FACTOR, KATZ_FACTOR } from "../core/formulas.js";
-import type { Claim, Reading, ReadValue } from "../core/reader.js";
-import type { ClaimKind } from "../core/vocabulary.js";
+import type { Claim, Reading, ReadValue } from "../core/reader/index.js";
+import type { ClaimKind } from "../core/reader/vocabulary.js";
 
 export interface Verdict {
   kind: ClaimKind;
@@ -51,8 +51,8 @@ export function checkClaims(reading: Reading, assessment: Assessment): Verdict[]
 }
 
 function verdictFor(claim: Claim, reading: Reading, a: Assessment): Verdict {
-  const ours = oursFor(claim.kind, a);
-  const label = LABELS[claim.kind];
+  const ours = oursFor(claim.kind, a, claim.withPotassium === true);
+  const label = claim.withPotassium ? "anion gap with potassium" : LABELS[claim.kind];
   if (ours === undefined) {
     return {
       kind: claim.kind,
@@ -92,8 +92,16 @@ function verdictFor(claim: Claim, reading: Reading, a: Assessment): Verdict {
   };
 }
 
-function oursFor(kind: ClaimKind, a: Assessment): { value: number; how: string } | undefined {
+function oursFor(
+  kind: ClaimKind,
+  a: Assessment,
+  withPotassium = false,
+): { value: number; how: string } | undefined {
   const r = a.results;
+  if (kind === "anionGap" && withPotassium) {
+    const k = a.alternatives.find((x) => x.id === "anionGap.potassium");
+    return k && { value: k.value, how: k.formula };
+  }
   switch (kind) {
     case "calculatedOsmolality":
       return (

@@ -1,8 +1,9 @@
 /** Builds the reply for a message with lab values: facts, interpretation, working, cautions. */
 import type { Assessment, Finding } from "../core/assess.js";
 import { fmt } from "../core/format.js";
-import type { Reading } from "../core/reader.js";
+import type { Reading } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
+import { checkClaims } from "./check.js";
 import { emptyReply, type Fact, type Reply } from "./reply.js";
 
 const LEVEL_ORDER = { critical: 0, warning: 1, info: 2 } as const;
@@ -74,6 +75,9 @@ export function computeReply(reading: Reading, a: Assessment, showWorking: boole
     return reply;
   }
   const interpreting = Object.keys(a.results).length > 0 || a.findings.length > 0;
+  // Values a lab or an analyser calculated and printed are checked against ours, never used.
+  const printed =
+    reading.claims.length > 0 ? checkClaims(reading, a).map((v) => `As printed: ${v.text}`) : [];
   return {
     kind: "result",
     headline: headlineOf(a),
@@ -82,7 +86,7 @@ export function computeReply(reading: Reading, a: Assessment, showWorking: boole
     interpretation: sortedFindings(a).map((f) => f.text),
     working: workingOf(a),
     problems: reading.problems.map(({ code, message }) => ({ code, message })),
-    notes: reading.notes,
+    notes: [...printed, ...reading.notes],
     cautions: interpreting ? a.cautions : [],
     shareable: interpreting && reading.identifiers.length === 0,
     showWorking,

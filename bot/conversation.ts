@@ -7,7 +7,7 @@
 import type { UnitSystem } from "../core/analytes.js";
 import { assess } from "../core/assess.js";
 import { fmt } from "../core/format.js";
-import { readMessage } from "../core/reader.js";
+import { readMessage } from "../core/reader/index.js";
 import { loadUnits } from "../core/units.js";
 import { checkClaims } from "./check.js";
 import { computeReply } from "./compute.js";
@@ -62,6 +62,11 @@ export class Conversation {
     this.command(["check", "verify"], async (ctx) => this.check(ctx));
     registerShiftCommands(this);
     registerPlanCommand(this);
+  }
+
+  /** Whether a word is one of the conversation's command words (help, units, check, plan …). */
+  isCommand(word: string): boolean {
+    return this.commands.has(word.toLowerCase());
   }
 
   /** Registers a command under one or more first words. */

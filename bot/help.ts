@@ -6,6 +6,7 @@ export const HELP_LINES = [
   "Type lab values the way you write them; Solute answers with the calculated and effective osmolality, the osmolal gap, the corrected sodium and what they suggest, with every formula named.",
   "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310 — a calculation.",
   "bed 12 Na 121 K 3.4 glu 6.2 mmol/L urea 3.1 mmol/L osm 254 — the same, tagged to a bed for the shift's handover (a bed or bay code only, never a name or number from the record).",
+  "Paste a panel from the results viewer as it is: ranges, flags and units in any order; urine and blood-gas values are read by specimen.",
   "… working — add the word working to see every step.",
   "check Na 131 glu 22 mmol/L urea 9 mmol/L calc osm 300 — checks a colleague's result and names the slip if it does not hold.",
   "check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 — checks the arithmetic itself.",

@@ -14,7 +14,7 @@ import {
 } from "../core/fluids.js";
 import { fmt, num, signed } from "../core/format.js";
 import { readPlan } from "../core/plan-reader.js";
-import { readMessage } from "../core/reader.js";
+import { readMessage } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
 import type { Context, Conversation } from "./conversation.js";
 import { errorCode, log } from "./log.js";

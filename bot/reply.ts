@@ -3,7 +3,7 @@
  * Card). It carries numbers already formatted for reading; the exact values travel in `data`.
  */
 import type { Assessment } from "../core/assess.js";
-import type { Reading } from "../core/reader.js";
+import type { Reading } from "../core/reader/index.js";
 
 export type ReplyKind =
   | "result"

@@ -6,7 +6,7 @@
 import type { Assessment } from "../core/assess.js";
 import { CAUTIONS } from "../core/cautions.js";
 import { fmt, num, signed } from "../core/format.js";
-import { checkTag } from "../core/reader.js";
+import { checkTag } from "../core/reader/index.js";
 import type { Context, Conversation } from "./conversation.js";
 import { errorCode, log } from "./log.js";
 import { emptyReply, type Reply } from "./reply.js";

@@ -23,10 +23,19 @@ export const ANALYTE_IDS = [
   "acetone",
   "propyleneGlycol",
   "mannitol",
+  "pH",
+  "betaHydroxybutyrate",
+  "lactate",
+  "urineOsmolality",
+  "urineSodium",
+  "urinePotassium",
 ] as const;
 export type AnalyteId = (typeof ANALYTE_IDS)[number];
 
 export type UnitSystem = "si" | "conventional";
+
+/** Where a value was measured: the main-lab serum or plasma, a urine sample, or a blood-gas analyser. */
+export type Specimen = "serum" | "urine" | "bloodGas";
 
 export interface LoincCode {
   code: string;
@@ -69,6 +78,8 @@ const GLUCOSE_MM = molarMass({ C: 6, H: 12, O: 6 });
 const N2_MM = molarMass({ N: 2 });
 const UREA_MM = molarMass({ C: 1, H: 4, N: 2, O: 1 });
 const ETHANOL_MM = molarMass({ C: 2, H: 6, O: 1 });
+const LACTATE_MM = molarMass({ C: 3, H: 6, O: 3 });
+const BHB_MM = molarMass({ C: 4, H: 8, O: 3 });
 
 /**
  * mg/dL → mmol/L for a molar mass (× 10 ÷ g/mol, by definition), used to state the typo guards in
@@ -225,6 +236,77 @@ export const ANALYTES: Record<AnalyteId, Analyte> = {
   acetone: alcohol("acetone", "acetone", "acetone", { C: 3, H: 6, O: 1 }, 1000),
   propyleneGlycol: alcohol("propyleneGlycol", "propylene glycol", "PG", { C: 3, H: 8, O: 2 }, 1000),
   mannitol: alcohol("mannitol", "mannitol", "mannitol", { C: 6, H: 14, O: 6 }, 5000),
+  pH: {
+    id: "pH",
+    name: "pH",
+    label: "pH",
+    canonicalUnit: "pH",
+    units: ["pH"],
+    conventionalDefault: "pH",
+    loinc: [{ code: "2744-1", property: "moles", confirmed: false }],
+    // Our own typo guard [common practice]: outside 6.5–8.0 is a typo, not a patient.
+    plausible: { min: 6.5, max: 8.0 },
+  },
+  betaHydroxybutyrate: {
+    id: "betaHydroxybutyrate",
+    name: "β-hydroxybutyrate",
+    label: "β-OHB",
+    canonicalUnit: "mmol/L",
+    units: ["mmol/L", "mg/dL"],
+    // Reported in mmol/L almost everywhere; a bare value in a channel without SI units is asked about.
+    systemUnits: { si: "mmol/L" },
+    formula: { C: 4, H: 8, O: 3 },
+    molarMass: BHB_MM,
+    loinc: [{ code: "53060-9", property: "moles", confirmed: false }],
+    plausible: { min: 0, max: 30 },
+  },
+  lactate: {
+    id: "lactate",
+    name: "lactate",
+    label: "lactate",
+    canonicalUnit: "mmol/L",
+    units: ["mmol/L", "mg/dL"],
+    systemUnits: { si: "mmol/L" },
+    formula: { C: 3, H: 6, O: 3 },
+    molarMass: LACTATE_MM,
+    loinc: [{ code: "2524-7", property: "moles", confirmed: false }],
+    plausible: { min: 0, max: 40 },
+  },
+  urineOsmolality: {
+    id: "urineOsmolality",
+    name: "urine osmolality",
+    label: "urine osm",
+    canonicalUnit: "mOsm/kg",
+    units: ["mOsm/kg", "mOsm/L"],
+    conventionalDefault: "mOsm/kg",
+    loinc: [{ code: "2695-5", property: "osmolality", confirmed: false }],
+    // Urine can be diluted to about 50 and concentrated to about 1200 [common practice]; guard wider.
+    plausible: { min: 20, max: 1500 },
+  },
+  urineSodium: {
+    id: "urineSodium",
+    name: "urine sodium",
+    label: "urine Na",
+    canonicalUnit: "mmol/L",
+    units: ["mmol/L", "mEq/L"],
+    conventionalDefault: "mmol/L",
+    ...withMass({ Na: 1 }),
+    valence: 1,
+    loinc: [{ code: "2955-3", property: "moles", confirmed: false }],
+    plausible: { min: 0, max: 400 },
+  },
+  urinePotassium: {
+    id: "urinePotassium",
+    name: "urine potassium",
+    label: "urine K",
+    canonicalUnit: "mmol/L",
+    units: ["mmol/L", "mEq/L"],
+    conventionalDefault: "mmol/L",
+    ...withMass({ K: 1 }),
+    valence: 1,
+    loinc: [{ code: "2829-0", property: "moles", confirmed: false }],
+    plausible: { min: 0, max: 250 },
+  },
 };
 
 /** Toxic alcohols and other osmoles measured directly; LOINC codes not listed rather than guessed. */

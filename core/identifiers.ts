@@ -280,7 +280,9 @@ export function findIdentifiers(
     }
 
     // A label that introduces a number: "MRN 4471", "DOB 3/4/51", "NHS 943 476 5919", "tel 0161…".
-    if (NUMBER_LABELS.has(low) && i + 1 < tokens.length && /\d/.test(tokens[i + 1]!.text)) {
+    // "pH 7.12" is a pH: "ph" introduces a phone number only when a long run of digits follows.
+    const shortDecimal = low === "ph" && /^\d{1,2}([.,]\d{1,3})?$/.test(tokens[i + 1]?.text ?? "");
+    if (NUMBER_LABELS.has(low) && !shortDecimal && i + 1 < tokens.length && /\d/.test(tokens[i + 1]!.text)) {
       let last = i + 1;
       while (last + 1 < tokens.length && /^\d+$/.test(tokens[last + 1]!.text) && last - i < 4) last++;
       const kind: IdentifierKind =

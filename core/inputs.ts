@@ -22,6 +22,13 @@ export const INPUT_KEYS = [
   "acetone",
   "propyleneGlycol",
   "mannitol",
+  // Added later: appended, so the Redis log's index encoding of older records stays valid.
+  "pH",
+  "betaHydroxybutyrate",
+  "lactate",
+  "urineOsmolality",
+  "urineSodium",
+  "urinePotassium",
 ] as const satisfies readonly AnalyteId[];
 export type InputKey = (typeof INPUT_KEYS)[number];
 

@@ -7,7 +7,7 @@
 import type { AgeBand, Sex } from "./fluids.js";
 import { INFUSATES, TBW_RANGE, VOLUME_RANGE, WEIGHT_RANGE } from "./fluids.js";
 import { num } from "./format.js";
-import type { Problem } from "./reader.js";
+import type { Problem } from "./reader/index.js";
 
 export interface PlanInputs {
   weightKg?: number;

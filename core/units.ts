@@ -24,11 +24,11 @@ function units(): NonNullable<typeof math> {
 }
 
 /** The spellings we accept, normalised. UCUM codes for each are in UCUM_CODES. */
-export const UNITS = ["mmol/L", "mEq/L", "mg/dL", "mg/L", "g/L", "g/dL", "mOsm/kg", "mOsm/L"] as const;
+export const UNITS = ["mmol/L", "mEq/L", "mg/dL", "mg/L", "g/L", "g/dL", "mOsm/kg", "mOsm/L", "pH"] as const;
 export type Unit = (typeof UNITS)[number];
 
 /** Canonical units the engine computes in. */
-export type CanonicalUnit = "mmol/L" | "mOsm/kg" | "g/L";
+export type CanonicalUnit = "mmol/L" | "mOsm/kg" | "g/L" | "pH";
 
 /** UCUM case-sensitive codes (UCUM specification; `eq` and `osm` are 1 mol in UCUM). */
 export const UCUM_CODES: Record<Unit, string> = {
@@ -40,6 +40,7 @@ export const UCUM_CODES: Record<Unit, string> = {
   "g/dL": "g/dL",
   "mOsm/kg": "mosm/kg",
   "mOsm/L": "mosm/L",
+  pH: "[pH]",
 };
 
 /** Units of mass concentration: they need a molar mass to become mmol/L. */

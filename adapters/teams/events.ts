@@ -10,13 +10,19 @@ export interface TeamsActivityLike {
 
 /** Removes <at>…</at> mentions and HTML entities that Teams puts in plain text. */
 export function cleanText(text: string): string {
-  return text
-    .replace(/<at>[^<]{0,200}<\/at>/gi, " ")
-    .replace(/&nbsp;/g, " ")
-    .replace(/&lt;/g, "<")
-    .replace(/&gt;/g, ">")
-    .replace(/&amp;/g, "&")
-    .trim();
+  return (
+    text
+      .replace(/<at>[^<]{0,200}<\/at>/gi, " ")
+      // A pasted block arrives as paragraphs or line breaks: keep its lines.
+      .replace(/<br\s{0,4}\/?>|<\/p>|<\/div>|<\/tr>/gi, "\n")
+      .replace(/<\/t[dh]>/gi, "\t")
+      .replace(/<[a-z/][^<>]{0,200}>/gi, "")
+      .replace(/&nbsp;/g, " ")
+      .replace(/&lt;/g, "<")
+      .replace(/&gt;/g, ">")
+      .replace(/&amp;/g, "&")
+      .trim()
+  );
 }
 
 /** Whether the bot itself is @mentioned in the activity. */

@@ -98,3 +98,60 @@ describe("the terminal chat", { timeout: 60_000 }, () => {
     expect(r.stderr).toBe("");
   });
 });
+
+describe("a pasted block is one message", () => {
+  it("splits a burst at empty lines, control words and command words only", async () => {
+    const { messagesOf } = await import("../../adapters/console/app.js");
+    const isCommand = (w: string) => ["units", "check", "plan", "help"].includes(w.toLowerCase());
+    expect(
+      messagesOf(
+        [
+          "Sodium 128 mmol/L",
+          "Glucose 9.4 mmol/L",
+          "",
+          "Na 131",
+          "working",
+          "units si",
+          "glucose 30",
+          "quit",
+        ],
+        isCommand,
+      ),
+    ).toEqual([
+      "Sodium 128 mmol/L\nGlucose 9.4 mmol/L",
+      "Na 131",
+      "working",
+      "units si",
+      "glucose 30",
+      "quit",
+    ]);
+    expect(messagesOf(["check", "Na 131", "calc osm 300"], isCommand)).toEqual([
+      "check\nNa 131\ncalc osm 300",
+    ]);
+  });
+
+  it("answers a pasted ten-line report once, reading every line", async () => {
+    const { PassThrough } = await import("node:stream");
+    const { startConsole } = await import("../../adapters/console/app.js");
+    const { Conversation } = await import("../../bot/conversation.js");
+    const { MemoryStore } = await import("../../adapters/store/memory.js");
+    const bot = new Conversation(new MemoryStore(), {
+      secret: "test-secret-0123456789",
+      shiftMs: 16 * 3_600_000,
+      osmolalityRange: { low: 275, high: 295 },
+    });
+    const input = new PassThrough();
+    const output = new PassThrough();
+    let out = "";
+    output.on("data", (d) => {
+      out += d;
+    });
+    const done = startConsole(bot, input, output, { pasteMs: 5 });
+    input.end(
+      "Test\tResult\tUnits\tRange\nSodium\t128\tmmol/L\t135-145\tL\nGlucose\t30.0\tmmol/L\t3.9-5.5\tH\nUrea\t14\tmmol/L\t2.5-7.8\tH\nOsmolality\t320\tmOsm/kg\t275-295\tH\n",
+    );
+    await done;
+    expect(out.match(/Read as:/g)).toHaveLength(1);
+    expect(out).toContain("Na 128 mmol/L, glucose 30 mmol/L, urea 14 mmol/L, measured osm 320 mOsm/kg");
+  });
+});

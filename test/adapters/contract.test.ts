@@ -31,6 +31,8 @@ const REQUESTS = [
   "Mr Ashdown-Pryce Na 128 glu 6 mmol/L urea 4 mmol/L",
   "plan Na 110 TBW 30 L 1 L 3% NaCl",
   "help",
+  // A pasted report: ranges before and after results, flags, a urine section, a lab-calculated field.
+  "Sodium (135 - 145 mmol/L): 126 L\nGlucose 9.4 H mmol/L\nUrea\t14\tmmol/L\t2.5-7.8\tH\nOsmolality 262 mOsm/kg (275-295) L\nOsmolality, calculated 281\nUrine:\nNa 71\nOsm 480",
 ];
 
 let api: FakeSlack;
@@ -129,6 +131,21 @@ describe.each(REQUESTS.map((r, i) => [r, i] as const))("contract: %s", (text, i)
         expect(found, `${name} lacks: ${piece}`).toBe(true);
       }
       expect(rendered, name).not.toContain("Ashdown");
+    }
+  });
+});
+
+describe("a pasted report on every surface", () => {
+  it("reads the serum and urine values by specimen and checks the lab's calculated field", async () => {
+    const text = REQUESTS.at(-1)!;
+    const reply = await neutral(text);
+    expect(reply.data!.reading.inputs).toMatchObject({ sodium: 126, urea: 14, measuredOsmolality: 262 });
+    expect(reply.data!.reading.inputs.urineSodium).toBe(71);
+    expect(reply.data!.reading.inputs.urineOsmolality).toBe(480);
+    expect(reply.readAs).toMatch(/urine Na 71 mmol\/L/);
+    expect(reply.notes.join()).toMatch(/As printed: The calculated osmolality 281/);
+    for (const rendered of [await viaTerminal(text), await viaSlack(text, 99), await viaTeams(text)]) {
+      expect(rendered).toContain("urine Na 71 mmol/L");
     }
   });
 });

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { INPUT_KEYS, type LabInputs } from "../../core/inputs.js";
-import { checkTag, readMessage, renderInputs } from "../../core/reader.js";
+import { INPUT_KEYS, type LabInputs } from "../../../core/inputs.js";
+import { checkTag, readMessage, renderInputs } from "../../../core/reader/index.js";
 
 const GLU_MG = 1 / 18.0156; // glucose mg/dL → mmol/L, REFERENCES.md §6 [D]
 const codes = (m: string, units?: "si" | "conventional") =>
@@ -153,7 +153,9 @@ describe("problems, never silent", () => {
     expect(codes("urea 10 mmol/L BUN 28")).toEqual([]);
   });
 
-  it("reports unknown words, orphan numbers and names without numbers", () => {
+  it("reports unknown words, orphan numbers and names without numbers, never by word number", () => {
+    expect(readMessage("Na 128 zorp glu 6 mmol/L").problems.at(-1)!.message).toMatch(/after sodium 128/);
+    expect(JSON.stringify(readMessage("sodum 128 K 4 blorp").problems)).not.toMatch(/word \d/);
     expect(codes("sodum 128")).toEqual(["number.orphan", "word.unknown"]);
     expect(codes("Na K 4")).toEqual(["value.missing"]);
     expect(codes("")).toEqual([]);
@@ -195,7 +197,7 @@ describe("the privacy guard", () => {
 
   it("NHS check digit: 943 476 5919 is valid", async () => {
     // REFERENCES.md §8 [D]: mod-11 check, weights 10..2.
-    const { isValidNhsNumber } = await import("../../core/identifiers.js");
+    const { isValidNhsNumber } = await import("../../../core/identifiers.js");
     expect(isValidNhsNumber("9434765919")).toBe(true);
     expect(isValidNhsNumber("9434765918")).toBe(false);
   });
@@ -250,7 +252,8 @@ describe("properties", () => {
     );
   });
 
-  it("stays fast on adversarial input of 100,000 characters", () => {
+  // Linear time is measured by npm run fuzz (its time budget); here, only that it finishes whole.
+  it("reads adversarial input of 100,000 characters without failing", () => {
     const attacks = [
       "a".repeat(100_000),
       "1".repeat(100_000),
@@ -263,12 +266,7 @@ describe("properties", () => {
       "9 ".repeat(50_000),
       "glu,".repeat(25_000),
     ];
-    for (const attack of attacks) {
-      const started = performance.now();
-      readMessage(attack);
-      // A bound, not a benchmark: linear work finishes far inside it; backtracking would not.
-      expect(performance.now() - started, attack.slice(0, 8)).toBeLessThan(2_000);
-    }
+    for (const attack of attacks) expect(readMessage(attack).inputs, attack.slice(0, 8)).toBeDefined();
   });
 
   const panel = fc.record(
@@ -338,15 +336,9 @@ describe("properties", () => {
     const all = Object.fromEntries(
       INPUT_KEYS.map((k) => [
         k,
-        k === "sodium"
-          ? 140
-          : k === "measuredOsmolality"
-            ? 290
-            : k === "albumin"
-              ? 40
-              : k === "chloride"
-                ? 100
-                : 5,
+        { sodium: 140, measuredOsmolality: 290, albumin: 40, chloride: 100, pH: 7.3, urineOsmolality: 450 }[
+          k as string
+        ] ?? 5,
       ]),
     ) as LabInputs;
     expect(readMessage(renderInputs(all)).inputs).toEqual(all);

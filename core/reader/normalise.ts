@@ -1,0 +1,36 @@
+/**
+ * What a results viewer, a phone keyboard or a word processor puts into pasted text, folded to
+ * plain characters before reading: full-width digits and letters (NFKC), curly quotes, every kind
+ * of dash and minus, non-breaking and thin spaces, zero-width characters, the micro sign, "mg / dl".
+ * Linear; plain ASCII without a spaced unit is returned as it is.
+ */
+const DASHES = /[\u2010-\u2015\u2212\uFE58\uFE63\uFF0D]/g;
+const QUOTES_SINGLE = /[\u2018\u2019\u201A\u201B\u2032]/g;
+const QUOTES_DOUBLE = /[\u201C\u201D\u201E\u201F\u2033]/g;
+const ZERO_WIDTH = /[\u200B-\u200D\u2060\uFEFF\u00AD]/g;
+const SPACES = /[\u00A0\u2000-\u200A\u202F\u205F\u3000]/g;
+/** "mg / dl", "mmol / L", "mOsm / kg": a unit written with spaces around its slash. */
+const SPACED_UNIT = /\b(m?g|mmol|umol|µmol|meq|mosm|mosmol|ng|pmol|nmol)\s+\/\s+(dl|l|kg|ml)\b/gi;
+
+function isAscii(text: string): boolean {
+  for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) > 0x7f) return false;
+  return true;
+}
+
+export function normalise(text: string): string {
+  let out = text;
+  if (!isAscii(out)) {
+    out = out
+      .normalize("NFKC")
+      .replace(ZERO_WIDTH, "")
+      .replace(SPACES, " ")
+      .replace(DASHES, "-")
+      .replace(QUOTES_SINGLE, "'")
+      .replace(QUOTES_DOUBLE, '"')
+      .replace(/[µμ]/g, "u")
+      .replace(/\u2028|\u2029/g, "\n");
+  }
+  if (out.includes("\r")) out = out.replace(/\r\n?/g, "\n");
+  if (out.includes(" /")) out = out.replace(SPACED_UNIT, "$1/$2");
+  return out;
+}
