@@ -1,12 +1,11 @@
 /** Builds the reply for a message with lab values: facts, interpretation, working, cautions. */
 import type { Assessment, Finding } from "../core/assess.js";
+import { sortFindings } from "../core/findings.js";
 import { fmt } from "../core/format.js";
 import type { Reading } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
 import { checkClaims } from "./check.js";
 import { emptyReply, type Fact, type Reply } from "./reply.js";
-
-const LEVEL_ORDER = { critical: 0, warning: 1, info: 2 } as const;
 
 export function factsOf(a: Assessment): Fact[] {
   const r = a.results;
@@ -43,7 +42,7 @@ export function workingOf(a: Assessment): string[] {
 }
 
 export function sortedFindings(a: Assessment): Finding[] {
-  return [...a.findings].sort((x, y) => LEVEL_ORDER[x.level] - LEVEL_ORDER[y.level]);
+  return sortFindings(a.findings);
 }
 
 export function headlineOf(a: Assessment): string {

@@ -5,14 +5,19 @@
 import { randomBytes } from "node:crypto";
 import { z } from "zod";
 
-const range = z
-  .string()
-  .regex(/^\d{3}\s*[-–]\s*\d{3}$/, "write it as low-high, e.g. 275-295")
-  .transform((s) => {
-    const [low, high] = s.split(/[-–]/).map((x) => Number(x.trim())) as [number, number];
-    return { low, high };
-  })
-  .refine((r) => r.low < r.high && r.low >= 250 && r.high <= 330, "low must be below high, within 250–330");
+const rangeOf = (example: string, min: number, max: number) =>
+  z
+    .string()
+    .regex(/^\d{1,3}\s*[-–]\s*\d{1,3}$/, `write it as low-high, e.g. ${example}`)
+    .transform((s) => {
+      const [low, high] = s.split(/[-–]/).map((x) => Number(x.trim())) as [number, number];
+      return { low, high };
+    })
+    .refine(
+      (r) => r.low < r.high && r.low >= min && r.high <= max,
+      `low must be below high, within ${min}–${max}`,
+    );
+const range = rangeOf("275-295", 250, 330);
 
 const flag = z
   .enum(["1", "0", "true", "false", "yes", "no", ""])
@@ -26,6 +31,7 @@ const EnvSchema = z.object({
   SOLUTE_SECRET: z.string().min(16, "must be at least 16 characters").optional(),
   SOLUTE_SHIFT_HOURS: z.coerce.number().min(1).max(72).default(16),
   SOLUTE_OSMOLALITY_RANGE: range.default({ low: 275, high: 295 }),
+  SOLUTE_ANION_GAP_RANGE: rangeOf("3-11", 0, 30).default({ low: 3, high: 11 }),
   SOLUTE_DEFAULT_UNITS: z.enum(["si", "conventional"]).optional(),
   SOLUTE_RATE_LIMIT: z.coerce.number().int().min(1).max(100000).default(120),
   SOLUTE_LOG_LEVEL: z.enum(["info", "warn"]).default("info"),
@@ -73,6 +79,8 @@ export interface Config {
   ephemeralSecret: boolean;
   shiftMs: number;
   osmolalityRange: { low: number; high: number };
+  /** The lab's anion-gap reference interval, mmol/L (analyser-specific). */
+  anionGapRange: { low: number; high: number };
   defaultUnits?: "si" | "conventional";
   rateLimitPerMinute: number;
   logLevel: "info" | "warn";
@@ -153,6 +161,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     ephemeralSecret: !e.SOLUTE_SECRET,
     shiftMs: e.SOLUTE_SHIFT_HOURS * 3_600_000,
     osmolalityRange: e.SOLUTE_OSMOLALITY_RANGE,
+    anionGapRange: e.SOLUTE_ANION_GAP_RANGE,
     rateLimitPerMinute: e.SOLUTE_RATE_LIMIT,
     logLevel: e.SOLUTE_LOG_LEVEL,
     ...(e.SOLUTE_DEFAULT_UNITS && { defaultUnits: e.SOLUTE_DEFAULT_UNITS }),

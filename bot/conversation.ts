@@ -5,11 +5,11 @@
  * answer.
  */
 import type { UnitSystem } from "../core/analytes.js";
-import { assess } from "../core/assess.js";
-import { fmt } from "../core/format.js";
-import { readMessage } from "../core/reader/index.js";
+import { type AssessOptions, assess } from "../core/assess.js";
+import { fmt, num } from "../core/format.js";
+import { type Reading, readMessage } from "../core/reader/index.js";
 import { loadUnits } from "../core/units.js";
-import { checkClaims } from "./check.js";
+import { checkClaims, checkHeadline } from "./check.js";
 import { computeReply } from "./compute.js";
 import type { Config } from "./config.js";
 import { evaluateExpression } from "./expression.js";
@@ -29,6 +29,8 @@ export interface Request {
 }
 
 export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits"> & {
+  /** The lab's anion-gap interval; the common modern one when absent. */
+  anionGapRange?: Config["anionGapRange"];
   /** Messages per channel per minute; unlimited when absent. */
   rateLimitPerMinute?: number;
 };
@@ -125,7 +127,7 @@ export class Conversation {
   /** The default: read the values and compute everything that can be computed. */
   async calculate(ctx: Context): Promise<Reply> {
     const reading = readMessage(ctx.rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
-    const assessment = assess(reading.inputs, { osmolalityRange: this.config.osmolalityRange });
+    const assessment = assess(reading.inputs, assessOptions(reading, this.config));
     const reply = computeReply(reading, assessment, ctx.showWorking);
     for (const hook of this.afterCalculation) await hook(ctx, reply);
     return reply;
@@ -223,6 +225,7 @@ export class Conversation {
     const notes: string[] = [];
     const problems: { code: string; message: string }[] = [];
     let text = ctx.rest;
+    let arithmetic: { text: string; value: number; claimed: number } | undefined;
     const expression = findExpression(text);
     if (expression) {
       const evaluated = await evaluateExpression(expression.text);
@@ -231,7 +234,13 @@ export class Conversation {
         text = `${text.slice(0, expression.start)} ${text.slice(expression.end)}`;
       } else {
         const claimed = expression.claimed;
+        // The colleague's written total is what they claimed; their own arithmetic is checked too.
         if (claimed !== undefined && Math.abs(claimed - evaluated.value) > 0.5) {
+          arithmetic = {
+            text: evaluated.text.replace(/\*/g, "×").replace(/\//g, "÷"),
+            value: evaluated.value,
+            claimed,
+          };
           notes.push(`Arithmetic: ${evaluated.text} is ${fmt(evaluated.value)}, not ${fmt(claimed)}.`);
         } else {
           notes.push(`Arithmetic: ${evaluated.text} = ${fmt(evaluated.value)}.`);
@@ -241,12 +250,12 @@ export class Conversation {
           /(calc(ulated)?\s+osm\w*|gap|osmolal\s+gap|osm\s+gap|eff(ective)?\s+osm\w*|tonicity|corr(ected)?\s+(na|sodium)|anion\s+gap|ag|og)\s*$/i.test(
             before.trimEnd(),
           );
-        const value = Number(evaluated.value.toFixed(6));
+        const value = claimed ?? Number(evaluated.value.toFixed(6));
         text = `${before} ${labelled ? "" : "calc osm "}${value} ${text.slice(expression.end)}`;
       }
     }
     const reading = readMessage(text, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
-    const assessment = assess(reading.inputs, { osmolalityRange: this.config.osmolalityRange });
+    const assessment = assess(reading.inputs, assessOptions(reading, this.config));
     const base = computeReply(reading, assessment, ctx.showWorking);
     if (reading.claims.length === 0) {
       const reply = emptyReply("check", "Nothing to check");
@@ -259,17 +268,57 @@ export class Conversation {
       return reply;
     }
     const verdicts = checkClaims(reading, assessment);
-    const allHold = verdicts.every((v) => v.holds);
+    if (arithmetic) {
+      // The sum itself was added up wrong: say so on the claim it made, and whether the formula was right.
+      const v = verdicts.find((x) => x.claimed === arithmetic!.claimed);
+      if (v && v.status !== "cannotCheck" && v.ours !== undefined) {
+        const formulaRight = Math.abs(arithmetic.value - v.ours) <= 1;
+        v.status = "doesNotHold";
+        v.holds = false;
+        v.slip = `the sum is added up wrong: ${arithmetic.text} is ${fmt(arithmetic.value)}`;
+        v.text = `The total ${num(arithmetic.claimed, 6)} is wrong: ${arithmetic.text} is ${fmt(arithmetic.value)}${formulaRight ? `, which matches Solute's ${fmt(v.ours)} — the formula was right, the adding up was not` : `; Solute gives ${fmt(v.ours)}`}.`;
+      }
+    }
     return {
       ...base,
       kind: "check",
-      headline: allHold ? "Check: the result holds" : "Check: the result does not hold",
+      headline: checkHeadline(verdicts, arithmetic),
       interpretation: [...verdicts.map((v) => v.text), ...base.interpretation],
       problems: [...problems, ...base.problems],
-      notes: [...notes, ...base.notes],
+      notes: [...notes, ...base.notes.filter((n) => !n.startsWith("As printed:"))],
       cautions: base.cautions.length > 0 ? base.cautions : assessment.cautions,
+      ...(base.data && { data: { ...base.data, verdicts } }),
     };
   }
+}
+
+/**
+ * How the engine reads this message: the channel's ranges, the glucose as written (each criterion
+ * is compared in its own unit), and a lab range printed beside the measured osmolality, which then
+ * takes the place of the configured one (the reading notes say so).
+ */
+export function assessOptions(reading: Reading, config: BotConfig): AssessOptions {
+  const glucose = reading.values.find((v) => v.key === "glucose");
+  const osm = reading.values.find((v) => v.key === "measuredOsmolality");
+  const printed = osm?.labRange;
+  let osmolalityRange = config.osmolalityRange;
+  if (
+    printed?.low !== undefined &&
+    printed.high !== undefined &&
+    printed.low >= 250 &&
+    printed.high <= 330 &&
+    printed.low < printed.high
+  ) {
+    osmolalityRange = { low: printed.low, high: printed.high };
+    reading.notes.push(
+      `Osmolality judged against the lab's printed range, ${printed.low}–${printed.high} mOsm/kg.`,
+    );
+  }
+  return {
+    osmolalityRange,
+    ...(config.anionGapRange && { anionGapRange: config.anionGapRange }),
+    ...(glucose && { glucoseWritten: { value: glucose.written, unit: glucose.unit } }),
+  };
 }
 
 /** The first run of arithmetic in a message: numbers joined by operators, with an optional "= N". */

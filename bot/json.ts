@@ -28,6 +28,18 @@ export interface JsonReply {
     correctedSodium?: { katz: JsonResult; hillier: JsonResult };
   };
   alternatives: (JsonResult & { id: string })[];
+  /** Every interpretation as a stable code, a severity and a text; danger first (README lists the codes). */
+  findings: { code: string; severity: "danger" | "warning" | "info"; text: string }[];
+  /** A check's verdict on each claim: `claimed` as the colleague wrote it; `computed` by the default method. */
+  verdicts?: {
+    claim: string;
+    claimed: number;
+    computed?: number;
+    holds: boolean;
+    status: string;
+    method?: string;
+    slip?: string;
+  }[];
   interpretation: string[];
   problems: { code: string; message: string }[];
   notes: string[];
@@ -68,6 +80,18 @@ export function toJson(reply: Reply): JsonReply {
       }),
     },
     alternatives: (a?.alternatives ?? []).map((x) => ({ id: x.id, ...slim(x) })),
+    findings: (a?.findings ?? []).map(({ code, severity, text }) => ({ code, severity, text })),
+    ...(reply.data?.verdicts && {
+      verdicts: reply.data.verdicts.map((v) => ({
+        claim: v.kind,
+        claimed: v.claimed,
+        ...(v.ours !== undefined && { computed: v.ours }),
+        holds: v.holds,
+        status: v.status,
+        ...(v.method && { method: v.method }),
+        ...(v.slip && { slip: v.slip }),
+      })),
+    }),
     interpretation: reply.interpretation,
     problems: reply.problems,
     notes: reply.notes,
@@ -78,5 +102,8 @@ export function toJson(reply: Reply): JsonReply {
 /** Whether a reply computed anything (the one-shot command exits 0 then, 2 otherwise). */
 export function computedAnything(reply: Reply): boolean {
   if (reply.kind === "help" || reply.kind === "settings") return true;
+  // A plan, a trend or a handover computed something when it has numbers to show.
+  if (reply.kind === "plan" || reply.kind === "trend" || reply.kind === "handover")
+    return reply.facts.length > 0;
   return reply.data !== undefined && Object.keys(reply.data.assessment.results).length > 0;
 }

@@ -4,6 +4,7 @@
  */
 import type { Assessment } from "../core/assess.js";
 import type { Reading } from "../core/reader/index.js";
+import type { Verdict } from "./check.js";
 
 export type ReplyKind =
   | "result"
@@ -48,7 +49,7 @@ export interface Reply {
   /** Whether the working should be shown inline (the user asked for it). */
   showWorking: boolean;
   /** The machine-readable result, for the one-shot command's JSON and the shift log. */
-  data?: { reading: Reading; assessment: Assessment };
+  data?: { reading: Reading; assessment: Assessment; verdicts?: Verdict[] };
 }
 
 export function emptyReply(kind: ReplyKind, headline: string): Reply {

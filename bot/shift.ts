@@ -27,19 +27,23 @@ export const CORRECTION_LIMITS = {
 
 /** Finding codes worth handing over. */
 const HANDOVER_FLAGS: Record<string, string> = {
+  "toxicAlcohol.possible": "toxic alcohol possible",
   "gap.raised": "raised osmolal gap",
   "gap.dependsOnEthanolFactor": "gap raised or not depending on the ethanol factor",
   "pattern.earlyAlcohol": "high osmolal gap with a normal anion gap",
   "pattern.bothRaised": "both gaps raised",
-  "hhs.osmolalityMet": "HHS-range osmolality",
+  "dka.met": "DKA criteria met",
+  "dka.undecided": "acidosis with high glucose, ketones not given",
+  "hhs.met": "HHS criteria met",
+  "dkaHhs.mixed": "mixed DKA and HHS",
   "critical.sodium.low": "critical low sodium",
   "critical.sodium.high": "critical high sodium",
   "critical.glucose.low": "critical low glucose",
   "critical.glucose.high": "critical high glucose",
   "critical.potassium.low": "critical low potassium",
   "critical.potassium.high": "critical high potassium",
-  "sodium.low.hypotonic": "hypotonic hyponatraemia",
-  "sodium.low.isotonic": "possible pseudohyponatraemia",
+  "hyponatraemia.hypotonic": "hypotonic hyponatraemia",
+  "pseudohyponatraemia.possible": "possible pseudohyponatraemia",
 };
 
 export function recordOf(channel: string, tag: string, at: number, a: Assessment): ShiftRecord {
@@ -53,7 +57,9 @@ export function recordOf(channel: string, tag: string, at: number, a: Assessment
     results.correctedSodiumKatz = r.correctedSodium.katz.value;
     results.correctedSodiumHillier = r.correctedSodium.hillier.value;
   }
-  const flags = a.findings.map((f) => f.code).filter((c) => c in HANDOVER_FLAGS);
+  const flags = a.findings
+    .map((f) => (f.code === "critical.value" && f.subject ? `critical.${f.subject}` : f.code))
+    .filter((c) => c in HANDOVER_FLAGS);
   return { channel, tag, at, inputs: { ...a.inputs }, results, flags };
 }
 

@@ -227,8 +227,8 @@ export const ANALYTES: Record<AnalyteId, Analyte> = {
       { code: "5643-2", property: "mass", confirmed: true },
       { code: "14719-9", property: "moles", confirmed: true },
     ],
-    // Our own typo guard, 0–1500 mg/dL [common practice].
-    plausible: { min: 0, max: mgdl(1500, ETHANOL_MM) },
+    // Above about 1,000 mg/dL (217 mmol/L) is beyond survivable levels: refused [common practice].
+    plausible: { min: 0, max: mgdl(1000, ETHANOL_MM) },
   },
   methanol: alcohol("methanol", "methanol", "MeOH", { C: 1, H: 4, O: 1 }, 1000),
   ethyleneGlycol: alcohol("ethyleneGlycol", "ethylene glycol", "EG", { C: 2, H: 6, O: 2 }, 1000),

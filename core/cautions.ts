@@ -21,7 +21,8 @@ export const CAUTIONS = {
     "Glucose-corrected sodium is an estimate: Katz (1.6) and Hillier (2.4 per 100 mg/dL) differ, and the relation is not linear at very high glucose (Hillier 1999). Both are shown.",
   pseudohyponatraemia:
     "Low sodium with a normal measured osmolality suggests pseudohyponatraemia: main-lab indirect ion-selective electrodes read falsely low with very high lipids or proteins; a blood-gas (direct ISE) sodium does not (Fortgens & Pillay 2011).",
-  hhsKetones: "HHS needs more than osmolality: ketones, pH and bicarbonate are not assessed here.",
+  anionGapRange:
+    "Anion-gap reference intervals depend on the analyser (about 3–11 mmol/L on modern ion-selective methods, 8–16 on older ones): use your lab's.",
   criticalValue:
     "A value is in the critical range: confirm it and act per your hospital's critical-result process.",
 } as const;

@@ -120,10 +120,23 @@ export function hooperOlderAdults(i: LabInputs): Result | undefined {
   );
 }
 
-/** Effective osmolality (tonicity): 2·Na + glucose. Urea and ethanol cross cell membranes. */
+/**
+ * Effective osmolality (tonicity): 2·Na + glucose, + mannitol when it was measured (an effective
+ * osmole, like glucose). Urea and ethanol cross cell membranes and are left out.
+ */
 export function effectiveOsmolality(i: LabInputs): Result | undefined {
-  const { sodium: na, glucose: glu } = i;
+  const { sodium: na, glucose: glu, mannitol } = i;
   if (na === undefined || glu === undefined) return undefined;
+  if (mannitol !== undefined && mannitol > 0) {
+    return result(
+      "effectiveOsmolality",
+      "Effective osmolality (tonicity)",
+      "2·Na + glucose + mannitol",
+      `2 × ${num(na)} + ${num(glu)} + ${num(mannitol)}`,
+      2 * na + glu + mannitol,
+      "ADA consensus (Kitabchi 2009; Umpierrez 2024); mannitol is an effective osmole",
+    );
+  }
   return result(
     "effectiveOsmolality",
     "Effective osmolality (tonicity)",

@@ -876,6 +876,15 @@ function readValue(
     const hi = num(analyte.plausible.max / factor, 1);
     let hint = " Check for a typo.";
     const other = otherUnitThatFits(analyte, result.value, resolved.unit);
+    if (other && resolved.source === "channel") {
+      // The channel's unit made it implausible, another unit would not: a question, never a guess.
+      problems.push({
+        code: "unit.ambiguous",
+        message: `${capitalise(name)} ${shown} has no unit: in ${resolved.unit} (this channel's units) it is not plausible, in ${other} it would be. Write the unit: ${ANALYTE_ALIASES[analyte.id][0]} ${shown} ${other} or ${shown} ${resolved.unit}.`,
+        line,
+      });
+      return undefined;
+    }
     if (other && resolved.source !== "written") hint = ` If it is in ${other}, write the unit.`;
     problems.push({
       code: "value.implausible",

@@ -82,6 +82,26 @@ describe("the one-shot command", { timeout: 60_000 }, () => {
   });
 });
 
+describe("the one-shot command's findings, verdicts and exit codes", () => {
+  it("prints findings with codes and severities, and a check's verdicts", async () => {
+    const r = await solute(["--json", "check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 = 290"]);
+    const j = JSON.parse(r.stdout) as JsonReply;
+    expect(j.verdicts).toEqual([
+      expect.objectContaining({ claim: "calculatedOsmolality", claimed: 290, computed: 293, holds: false }),
+    ]);
+    const f = JSON.parse(
+      (await solute(["--json", "Na 118 glu 5 mmol/L urea 4 mmol/L osm 250"])).stdout,
+    ) as JsonReply;
+    expect(f.findings[0]).toMatchObject({ code: "critical.value", severity: "danger" });
+    expect(f.findings.map((x) => x.code)).toContain("hyponatraemia.hypotonic");
+  });
+
+  it("exits 0 for a plan that computed its numbers", async () => {
+    const r = await solute(["plan Na 118 70 kg woman adult 1 L 0.9% NaCl"]);
+    expect(r.code).toBe(0);
+  });
+});
+
 describe("the terminal chat", { timeout: 60_000 }, () => {
   it("answers lines typed on stdin, shows the working, and quits", async () => {
     const r = await run(process.execPath, ["--import", "tsx", "bot/main.ts"], {

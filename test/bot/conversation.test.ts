@@ -123,24 +123,35 @@ describe("checking a colleague's result", () => {
   it("a correct claim holds, allowing for rounding", async () => {
     const r = await ask(`check ${panel} calc osm 300`);
     expect(r.kind).toBe("check");
-    expect(r.headline).toBe("Check: the result holds");
+    expect(r.headline).toBe("Check: the calculated osmolality 300 holds");
     expect(r.cautions.at(-1)).toBe(CAUTIONS.general);
   });
 
   it.each([
     ["calc osm 810", /glucose in mg\/dL added without dividing by 18/],
-    ["calc osm 291", /Dorwart–Chalmers/],
     ["calc osm 172", /sodium not doubled/],
     ["calc osm 286", /urea left out/],
-    ["gap 19", /Dorwart–Chalmers/],
     ["gap -10", /subtraction reversed/],
     ["eff osm 300", /urea included/],
-    ["corrected Na 138.6", /Hillier/],
     ["corrected Na 121", /subtracted instead of added/],
   ])("names the slip behind %s", async (claim, slip) => {
     const r = await ask(`check ${panel} ${claim}`);
-    expect(r.headline).toBe("Check: the result does not hold");
+    expect(r.headline).toMatch(/^Check: the .* does not hold — /);
     expect(r.interpretation[0]).toMatch(slip);
+    expect(r.data!.verdicts![0]!.holds).toBe(false);
+  });
+
+  // Published methods Solute itself shows are never "does not hold" (REFERENCES §1, §4).
+  it.each([
+    ["calc osm 291", /Dorwart–Chalmers/], // 1.86·128 + 29.97 + 14 + 9 = 291.05 [D]
+    ["gap 19", /Dorwart–Chalmers/],
+    ["corrected Na 138.6", /Hillier/], // 128 + 2.4 × 4.4 = 138.56 [D]
+  ])("a published alternative matches: %s", async (claim, method) => {
+    const r = await ask(`check ${panel} ${claim}`);
+    expect(r.headline).toMatch(/matches/);
+    expect(r.interpretation[0]).toMatch(method);
+    expect(r.interpretation[0]).toMatch(/Solute's default/);
+    expect(r.data!.verdicts![0]).toMatchObject({ holds: true, status: "matchesAlternative" });
   });
 
   it("BUN vs urea slips", async () => {
@@ -151,17 +162,36 @@ describe("checking a colleague's result", () => {
     expect(u.interpretation[0]).toMatch(/divided by 2.8 as if it were BUN/);
   });
 
-  it("ethanol left out, or counted the other published way", async () => {
+  it("ethanol left out, counted twice, or counted the other published way", async () => {
     // Ethanol 184.3 mg/dL = 40 mmol/L (÷ 4.607, REFERENCES.md §6 [D]).
     const base = "check Na 140 glu 5 mmol/L urea 5 mmol/L EtOH 184.3 mg/dL osm 345";
     expect((await ask(`${base} calc osm 290`)).interpretation[0]).toMatch(/ethanol left out/);
-    expect((await ask(`${base} calc osm 330`)).headline).toBe("Check: the result holds");
-    expect((await ask(`${base} calc osm 340`)).interpretation[0]).toMatch(/1\.25/);
+    expect((await ask(`${base} calc osm 330`)).headline).toBe("Check: the calculated osmolality 330 holds");
+    expect((await ask(`${base} calc osm 370`)).interpretation[0]).toMatch(/ethanol counted twice/);
+    const purssell = await ask(`${base} calc osm 340`);
+    expect(purssell.interpretation[0]).toMatch(/matches ethanol counted as mg\/dL ÷ 3\.7/);
   });
 
-  it("potassium counted", async () => {
+  it("potassium counted: the published 2·(Na + K) form matches", async () => {
     const r = await ask("check Na 140 K 4 glu 5 mmol/L urea 5 mmol/L calc osm 298");
-    expect(r.interpretation[0]).toMatch(/potassium counted/);
+    expect(r.interpretation[0]).toMatch(/matches the formula with potassium/);
+  });
+
+  it("anion-gap claims are checked without a glucose; K added and a corrected sodium are slips", async () => {
+    const k = await ask("check Na 140 Cl 100 HCO3 20 K 4 AG 24");
+    expect(k.interpretation[0]).toMatch(/potassium added/);
+    const labelled = await ask("check Na 140 Cl 100 HCO3 20 K 4 anion gap K+ 24");
+    expect(labelled.headline).toBe("Check: the anion gap 24 holds");
+    // Na 128, glucose 540 mg/dL: Katz-corrected 135.04; AG with it 135.04 − 100 − 10 = 25.0 [D].
+    const corrected = await ask("check Na 128 glu 540 mg/dL Cl 100 HCO3 10 AG 25");
+    expect(corrected.interpretation[0]).toMatch(/glucose-corrected sodium used/);
+  });
+
+  it("never 'does not hold' and 'cannot check' for the same claim", async () => {
+    const r = await ask("check Na 140 calc osm 290");
+    expect(r.headline).toBe("Check: cannot be checked with these values");
+    expect(r.interpretation.join()).not.toMatch(/does not hold/);
+    expect(r.data!.verdicts![0]!.status).toBe("cannotCheck");
   });
 
   it("no single slip: says so", async () => {
@@ -169,13 +199,18 @@ describe("checking a colleague's result", () => {
     expect(r.interpretation[0]).toMatch(/No single common slip/);
   });
 
-  it("checks the colleague's own arithmetic", async () => {
+  it("checks the colleague's own arithmetic; a wrong written total leads the headline", async () => {
     const r = await ask(`check ${panel} 2*128 + 540 + 14`);
     expect(r.notes[0]).toBe("Arithmetic: 2*128 + 540 + 14 = 810.0.");
     expect(r.interpretation[0]).toMatch(/glucose in mg\/dL added without dividing by 18/);
+    const wrong = await ask("check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 = 290");
+    // 2 × 131 + 22 + 9 = 293 [D]: the formula is right, the sum is not.
+    expect(wrong.headline).toBe("Check: the written total is wrong — 2×131 + 22 + 9 is 293.0, not 290");
+    expect(wrong.interpretation[0]).toMatch(/the formula was right, the adding up was not/);
+    expect(wrong.data!.verdicts![0]).toMatchObject({ claimed: 290, ours: 293, holds: false });
     const labelled = await ask(`check ${panel} gap 310 - (2×128 + 540÷18 + 14) = 12`);
     expect(labelled.notes[0]).toMatch(/is 10\.0, not 12\.0/);
-    expect(labelled.interpretation[0]).toMatch(/osmolal gap 10\.0 holds/);
+    expect(labelled.headline).toMatch(/written total is wrong/);
   });
 
   it("refuses an expression that is not plain arithmetic", async () => {

@@ -46,7 +46,7 @@ describe("a night of tagged calculations", () => {
     ]);
     expect(h.facts[0]!.value).toMatch(/gap 28\.7/);
     const text = h.interpretation.join("\n");
-    expect(text).toContain("bay 4B: raised osmolal gap");
+    expect(text).toMatch(/bay 4B: toxic alcohol possible; raised osmolal gap/);
     expect(text).toMatch(/bed 12: critical low sodium; hypotonic hyponatraemia/);
     expect(text).toMatch(/bed 12: Na 118 → 124 → 127 .*\+9\.0 mmol\/L over 8\.0 h/);
     // REFERENCES.md §5: high-risk limit 8 mmol/L per 24 h (Verbalis 2013, from memory [M]).

@@ -139,9 +139,16 @@ describe("problems, never silent", () => {
     expect(r.problems[0]!.message).toMatch(/90–200 mmol\/L/);
   });
 
-  it("hints at the unit that would fit when the channel's unit made it implausible", () => {
+  it("asks when the channel's unit makes a bare value implausible and another unit would not", () => {
     const r = readMessage("glucose 540", { unitSystem: "si" });
-    expect(r.problems[0]!.message).toMatch(/If it is in mg\/dL, write the unit/);
+    expect(r.problems[0]!.code).toBe("unit.ambiguous");
+    expect(r.problems[0]!.message).toMatch(/in mg\/dL it would be/);
+    // REFERENCES.md §6 [P]: ethanol above about 1,000 mg/dL (217 mmol/L) is beyond survivable levels.
+    const e = readMessage("EtOH 230", { unitSystem: "si" });
+    expect(e.inputs).toEqual({});
+    expect(e.problems[0]!.code).toBe("unit.ambiguous");
+    expect(readMessage("EtOH 1001 mg/dL").problems[0]!.code).toBe("value.implausible");
+    expect(readMessage("EtOH 999 mg/dL").inputs.ethanol).toBeCloseTo(999 / 4.6069, 3);
   });
 
   it("an analyte given twice with different values is not used", () => {
@@ -277,7 +284,7 @@ describe("properties", () => {
       urea: fc.double({ min: 0.4, max: 100, noNaN: true }),
       measuredOsmolality: fc.double({ min: 200, max: 450, noNaN: true }),
       // Nobody types a subnormal double: ethanol is 0 or at least 0.001 mmol/L here.
-      ethanol: fc.oneof(fc.constant(0), fc.double({ min: 0.001, max: 300, noNaN: true })),
+      ethanol: fc.oneof(fc.constant(0), fc.double({ min: 0.001, max: 200, noNaN: true })),
       albumin: fc.double({ min: 5, max: 70, noNaN: true }),
     },
     { requiredKeys: [] },
