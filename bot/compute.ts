@@ -64,6 +64,7 @@ export function computeReply(reading: Reading, a: Assessment, showWorking: boole
   if (reading.values.length === 0) {
     const reply = emptyReply("nothing", "No lab values found in that message");
     reply.problems = reading.problems.map(({ code, message }) => ({ code, message }));
+    reply.data = { reading, assessment: a };
     if (reply.problems.length === 0) {
       reply.problems.push({
         code: "input.empty",

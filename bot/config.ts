@@ -30,6 +30,12 @@ const EnvSchema = z.object({
   HOST: z.string().default("0.0.0.0"),
   SOLUTE_SECRET: z.string().min(16, "must be at least 16 characters").optional(),
   SOLUTE_SHIFT_HOURS: z.coerce.number().min(1).max(72).default(16),
+  // Sodium series must outlive the 24 h correction limit and the 48 h total (REFERENCES §5).
+  SOLUTE_SERIES_HOURS: z.coerce
+    .number()
+    .min(48, "must be at least 48: the correction limits span 48 h")
+    .max(168)
+    .default(48),
   SOLUTE_OSMOLALITY_RANGE: range.default({ low: 275, high: 295 }),
   SOLUTE_ANION_GAP_RANGE: rangeOf("3-11", 0, 30).default({ low: 3, high: 11 }),
   SOLUTE_DEFAULT_UNITS: z.enum(["si", "conventional"]).optional(),
@@ -78,6 +84,8 @@ export interface Config {
   /** True when no SOLUTE_SECRET was given and one was made for this process. */
   ephemeralSecret: boolean;
   shiftMs: number;
+  /** How long a case's sodium series lives (at least 48 h), independent of the shift summary. */
+  seriesMs: number;
   osmolalityRange: { low: number; high: number };
   /** The lab's anion-gap reference interval, mmol/L (analyser-specific). */
   anionGapRange: { low: number; high: number };
@@ -160,6 +168,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     secret: e.SOLUTE_SECRET ?? randomBytes(32).toString("base64url"),
     ephemeralSecret: !e.SOLUTE_SECRET,
     shiftMs: e.SOLUTE_SHIFT_HOURS * 3_600_000,
+    seriesMs: e.SOLUTE_SERIES_HOURS * 3_600_000,
     osmolalityRange: e.SOLUTE_OSMOLALITY_RANGE,
     anionGapRange: e.SOLUTE_ANION_GAP_RANGE,
     rateLimitPerMinute: e.SOLUTE_RATE_LIMIT,

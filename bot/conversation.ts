@@ -31,6 +31,8 @@ export interface Request {
 export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits"> & {
   /** The lab's anion-gap interval; the common modern one when absent. */
   anionGapRange?: Config["anionGapRange"];
+  /** How long a case's sodium series lives; 48 h when absent. */
+  seriesMs?: number;
   /** Messages per channel per minute; unlimited when absent. */
   rateLimitPerMinute?: number;
 };

@@ -6,6 +6,7 @@ import { ANALYTES } from "../core/analytes.js";
 import { INPUT_KEYS } from "../core/inputs.js";
 import type { Result } from "../core/results.js";
 import type { Reply } from "./reply.js";
+import { trendJson } from "./shift.js";
 
 export interface JsonResult {
   value: number;
@@ -40,6 +41,8 @@ export interface JsonReply {
     method?: string;
     slip?: string;
   }[];
+  /** A trend's episode, windows and room left (trend, and a plan for a tagged case). */
+  trend?: ReturnType<typeof trendJson>;
   interpretation: string[];
   problems: { code: string; message: string }[];
   notes: string[];
@@ -80,7 +83,14 @@ export function toJson(reply: Reply): JsonReply {
       }),
     },
     alternatives: (a?.alternatives ?? []).map((x) => ({ id: x.id, ...slim(x) })),
-    findings: (a?.findings ?? []).map(({ code, severity, text }) => ({ code, severity, text })),
+    findings: [...(reply.data?.trend?.findings ?? []), ...(a?.findings ?? [])].map(
+      ({ code, severity, text }) => ({
+        code,
+        severity,
+        text,
+      }),
+    ),
+    ...(reply.data?.trend && { trend: trendJson(reply.data.trend) }),
     ...(reply.data?.verdicts && {
       verdicts: reply.data.verdicts.map((v) => ({
         claim: v.kind,
@@ -105,5 +115,5 @@ export function computedAnything(reply: Reply): boolean {
   // A plan, a trend or a handover computed something when it has numbers to show.
   if (reply.kind === "plan" || reply.kind === "trend" || reply.kind === "handover")
     return reply.facts.length > 0;
-  return reply.data !== undefined && Object.keys(reply.data.assessment.results).length > 0;
+  return reply.data?.assessment !== undefined && Object.keys(reply.data.assessment.results).length > 0;
 }

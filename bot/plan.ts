@@ -1,9 +1,13 @@
 /**
  * The planning command: what a litre (or a given volume) of a fluid is expected to do to the
- * sodium, by Adrogué–Madias, with the free water deficit in hypernatraemia, checked against the
- * correction limits and the correction already logged for the case this shift.
+ * sodium, by Adrogué–Madias, with the free water deficit in hypernatraemia — or, in reverse, the
+ * volume for a wanted change. It is judged by the correction model (core/correction.ts) against
+ * the case's logged episode plus the plan's own sodium, in the current 24 h window. High risk is
+ * set by the words or by the values in the message and stays with the case. The verdict comes
+ * first: a plan the limits forbid says so before its numbers.
  */
 import { CAUTIONS } from "../core/cautions.js";
+import { correctionTrend, planFits, type SodiumPoint } from "../core/correction.js";
 import {
   adrogueMadias,
   freeWaterDeficit,
@@ -19,7 +23,11 @@ import type { Result } from "../core/results.js";
 import type { Context, Conversation } from "./conversation.js";
 import { errorCode, log } from "./log.js";
 import { emptyReply, type Reply } from "./reply.js";
-import { CORRECTION_LIMITS, sodiumTrend } from "./shift.js";
+import { episodeOf, markHighRisk, pointsOf } from "./shift.js";
+
+const HOUR = 3_600_000;
+/** Hypokalaemia below 3.5 mmol/L raises the risk of osmotic demyelination (REFERENCES §5 [M]). */
+const HYPOKALAEMIA = 3.5;
 
 const PLAN_CAUTIONS = [
   "The Adrogué–Madias estimate is exact only for one litre given at once; it ignores ongoing losses, urine output and any other fluid. Once the cause is treated, a water diuresis can raise the sodium much faster than predicted.",
@@ -41,6 +49,7 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
   reply.problems.push(...problems.map(({ code, message }) => ({ code, message })));
   reply.problems.push(...reading.problems.map(({ code, message }) => ({ code, message })));
   const na = reading.inputs.sodium;
+  const k = reading.inputs.potassium;
   if (reading.echo) reply.readAs = reading.echo + (reading.tag ? ` — case ${reading.tag}` : "");
 
   // Total body water: given, or from weight, sex and age band.
@@ -99,6 +108,37 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
     return reply;
   }
 
+  // High risk: said in words, or shown by the values (Na ≤ 105, hypokalaemia); it stays with the case.
+  const riskByValues = na <= 105 || (k !== undefined && k < HYPOKALAEMIA);
+  const now = bot.clock();
+  let points: SodiumPoint[] = [];
+  let firstAt = now;
+  let loggedHighRisk = false;
+  if (reading.tag) {
+    try {
+      const episode = episodeOf(await bot.store.listRecords(ctx.channel, now), reading.tag);
+      const logged = pointsOf(episode);
+      loggedHighRisk = episode.highRisk;
+      if (logged.firstAt !== undefined) {
+        firstAt = logged.firstAt;
+        points = logged.points;
+      }
+    } catch (error) {
+      log("warn", "store.log-unavailable", { code: errorCode(error) });
+      reply.notes.push("The shift log is unavailable: the correction already made could not be counted.");
+    }
+  }
+  const highRisk = p.highRisk || riskByValues || loggedHighRisk;
+  if (reading.tag && (p.highRisk || riskByValues) && !loggedHighRisk)
+    await markHighRisk(ctx, bot, reading.tag);
+  // The plan's own sodium is the latest point of the episode.
+  const nowHours = (now - firstAt) / HOUR;
+  const last = points.at(-1);
+  if (!last || last.sodium !== na || nowHours - last.hours > 0.25)
+    points.push({ hours: nowHours, sodium: na });
+  const trend = points.length >= 2 ? correctionTrend(points, { highRisk, nowHours }) : undefined;
+  const direction = na < 135 ? "raising" : na > 145 ? "lowering" : "none";
+
   reply.facts.push({
     label: "Total body water",
     value: `${fmt(tbw.value)} L`,
@@ -107,6 +147,7 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
   reply.working.push(`${tbw.label}: ${tbw.working} — ${tbw.source}`);
 
   let change: number | undefined;
+  let litres = p.litres ?? 1;
   if (p.infusate) {
     const infusate = { ...p.infusate, potassium: p.infusate.potassium + (p.addedPotassium ?? 0) };
     if (p.addedPotassium)
@@ -118,28 +159,50 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
       formula: "Adrogué–Madias",
     });
     reply.working.push(`${perLitre.label}: ${perLitre.working} — ${perLitre.source}`);
-    change = perLitre.value;
-    if (p.litres !== undefined && p.litres !== 1) {
-      const forVolume = volumeChange(na, tbw.value, infusate, p.litres);
+    if (p.target !== undefined) {
+      // Reverse planning: the volume for the wanted change, ΔT ÷ ΔNa per litre (REFERENCES §5 [D]).
+      if (perLitre.value === 0 || Math.sign(perLitre.value) !== Math.sign(p.target)) {
+        reply.problems.push({
+          code: "plan.targetWrongWay",
+          message: `${infusate.name} moves this sodium ${perLitre.value > 0 ? "up" : perLitre.value < 0 ? "down" : "not at all"}: it cannot give a change of ${signed(p.target)}.`,
+        });
+        reply.headline = "Fluid plan: that fluid cannot give that change";
+        return reply;
+      }
+      litres = p.target / perLitre.value;
       reply.facts.push({
-        label: `For ${num(p.litres * 1000, 0)} mL`,
-        value: `${signed(forVolume.value)} mmol/L`,
-        formula: forVolume.formula,
+        label: `Volume for ${signed(p.target)} mmol/L`,
+        value: `about ${num(litres * 1000, 0)} mL`,
+        formula: "wanted change ÷ change per litre",
       });
-      reply.working.push(`${forVolume.label}: ${forVolume.working} — ${forVolume.source}`);
-      change = forVolume.value;
+      reply.working.push(
+        `Volume for ${signed(p.target)} mmol/L: ${signed(p.target)} ÷ ${fmt(perLitre.value, 2)} = ${fmt(litres, 3)} L — from the Adrogué–Madias estimate per litre`,
+      );
+      change = p.target;
+    } else {
+      change = perLitre.value;
+      if (p.litres !== undefined && p.litres !== 1) {
+        const forVolume = volumeChange(na, tbw.value, infusate, p.litres);
+        reply.facts.push({
+          label: `For ${num(p.litres * 1000, 0)} mL`,
+          value: `${signed(forVolume.value)} mmol/L`,
+          formula: forVolume.formula,
+        });
+        reply.working.push(`${forVolume.label}: ${forVolume.working} — ${forVolume.source}`);
+        change = forVolume.value;
+      }
     }
     reply.facts.push({
       label: "Expected sodium after",
       value: `about ${fmt(na + change)} mmol/L`,
       formula: `from ${num(na)}`,
     });
-    reply.headline = `${num(p.litres !== undefined ? p.litres * 1000 : 1000, 0)} mL of ${infusate.name}: ${signed(change)} mmol/L expected (Na ${num(na)} → about ${fmt(na + change)})`;
-    if (p.infusate.id === "saline-3") {
+    reply.headline = `${num(litres * 1000, 0)} mL of ${infusate.name}: ${signed(change)} mmol/L expected (Na ${num(na)} → about ${fmt(na + change)})`;
+    // A bolus target belongs to severe symptomatic hyponatraemia only.
+    if (p.infusate.id === "saline-3" && na < 130)
       reply.interpretation.push(
-        "In severe symptoms, guidelines aim for a rise of about 5 mmol/L in the first hour (Spasovski 2014); bolus volumes per local protocol.",
+        "With severe symptoms, guidelines aim for a rise of about 5 mmol/L in the first hour (Spasovski 2014); bolus volumes per local protocol.",
       );
-    }
   }
 
   if (na > 145) {
@@ -159,53 +222,60 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
     reply.notes.push("A free water deficit applies to a sodium above 145 mmol/L.");
   }
 
-  // Limits: the plan alone, and with the correction already logged for this case in 24 h.
+  // Limits: the logged episode and the plan's own sodium, in the current window, plus the plan.
   if (change !== undefined) {
-    const highRisk = p.highRisk || na <= 105;
-    let already = 0;
-    if (reading.tag) {
-      try {
-        const trend = sodiumTrend(
-          (await bot.store.listRecords(ctx.channel, bot.clock())).filter((r) => r.tag === reading.tag),
-        );
-        if (trend && trend.spanMs <= 24 * 3_600_000) {
-          already = trend.change;
-          reply.interpretation.push(
-            `Logged for ${reading.tag} this shift: ${signed(already)} mmol/L over ${fmt(trend.spanMs / 3_600_000)} h.`,
-          );
-        }
-      } catch (error) {
-        log("warn", "store.log-unavailable", { code: errorCode(error) });
-        reply.notes.push("The shift log is unavailable: the correction already made could not be counted.");
-      }
+    const fits = planFits(trend, change, highRisk, na);
+    const soFar = trend
+      ? trend.findings.find((f) => f.code === "correction.tooFast" || f.code === "correction.worsening")
+      : undefined;
+    if (trend) {
+      const w = trend.windows.find((x) => x.open) ?? trend.windows.at(-1)!;
+      reply.interpretation.push(
+        `Logged for ${reading.tag}: ${signed((trend.direction === "lowering" ? -1 : 1) * w.change)} mmol/L so far in hours ${num(w.fromHours)}–${num(w.toHours)} of the episode (limit ${w.limit}).`,
+      );
     }
-    const total = already + change;
-    if (total > 0) {
-      const limit = highRisk ? CORRECTION_LIMITS.highRisk : CORRECTION_LIMITS.standard;
-      const sum = already !== 0 ? ` (${signed(already)} already + ${signed(change)} planned)` : "";
-      if (total > CORRECTION_LIMITS.standard) {
+    const riskText = highRisk
+      ? ` (high risk${riskByValues ? `: ${na <= 105 ? "Na ≤ 105" : "potassium below 3.5"}` : ""})`
+      : "";
+    if (direction === "raising" && change > 0) {
+      if (soFar?.code === "correction.tooFast" || !fits.fits) {
+        const sum = fits.already > 0 ? ` (${signed(fits.already)} already + ${signed(change)} planned)` : "";
         reply.interpretation.unshift(
-          `Too fast: ${signed(total)} mmol/L${sum} would exceed the 10 mmol/L limit for the first 24 h (European guideline, Spasovski 2014; the US panel allows 10–12). Risk of osmotic demyelination.`,
+          `Too fast: ${signed(fits.total)} mmol/L${sum} would exceed the limit of ${fits.limit} in this 24 h window${riskText} (European guideline, Spasovski 2014; Verbalis 2013 at high risk). ${fmt(fits.room)} more is allowed now. Risk of osmotic demyelination.`,
         );
-      } else if (total > CORRECTION_LIMITS.highRisk) {
-        reply.interpretation.unshift(
-          highRisk
-            ? `Too fast for a high-risk patient: ${signed(total)} mmol/L${sum} would exceed 8 mmol/L in 24 h (Verbalis 2013).`
-            : `${signed(total)} mmol/L${sum} is within 10 mmol/L for 24 h but above the 8 mmol/L limit for patients at high risk (Na ≤ 105, hypokalaemia, alcohol use disorder, malnutrition, liver disease).`,
-        );
+        reply.headline = `Too fast: ${reply.headline}; only ${fmt(fits.room)} more is allowed in this window`;
       } else {
         reply.interpretation.push(
-          `${signed(total)} mmol/L${sum} is within the ${limit} mmol/L per 24 h limit${highRisk ? " for high risk" : ""}.`,
+          `${signed(fits.total)} mmol/L${fits.already > 0 ? ` (${signed(fits.already)} already + ${signed(change)} planned)` : ""} is within the limit of ${fits.limit} for this 24 h window${riskText}; ${fmt(fits.room - change)} would be left.`,
         );
       }
-    } else if (change < 0 && na < 135) {
+    } else if (direction === "raising" && change < 0) {
       reply.interpretation.unshift(
         `This fluid would lower an already low sodium (${signed(change)} mmol/L).`,
       );
+      reply.headline = `Lowers a low sodium: ${reply.headline}`;
+    } else if (direction === "lowering" && change > 0) {
+      reply.interpretation.unshift(
+        `This fluid would raise an already high sodium (${signed(change)} mmol/L).`,
+      );
+      reply.headline = `Raises a high sodium: ${reply.headline}`;
+    } else if (direction === "lowering" && change < 0) {
+      if (soFar?.code === "correction.tooFast" || !fits.fits) {
+        reply.interpretation.unshift(
+          `Too fast: a fall of ${fmt(fits.total)} mmol/L would exceed about ${fits.limit} in 24 h for a chronic hypernatraemia (REFERENCES §5, to be confirmed locally; an acute one may be lowered faster).`,
+        );
+        reply.headline = `Too fast: ${reply.headline}`;
+      } else {
+        reply.interpretation.push(
+          `A fall of ${fmt(fits.total)} mmol/L is within about ${fits.limit} in 24 h for a chronic hypernatraemia (about 0.5 mmol/L an hour; acute may be faster).`,
+        );
+      }
     }
+    if (soFar?.code === "correction.worsening") reply.interpretation.unshift(soFar.text);
   }
   reply.cautions = [...(p.infusate ? PLAN_CAUTIONS : PLAN_CAUTIONS.slice(1)), CAUTIONS.general];
   reply.shareable = reading.identifiers.length === 0;
+  if (trend) reply.data = { trend };
   return reply;
 }
 

@@ -3,6 +3,7 @@
  * Card). It carries numbers already formatted for reading; the exact values travel in `data`.
  */
 import type { Assessment } from "../core/assess.js";
+import type { CorrectionTrend } from "../core/correction.js";
 import type { Reading } from "../core/reader/index.js";
 import type { Verdict } from "./check.js";
 
@@ -49,7 +50,7 @@ export interface Reply {
   /** Whether the working should be shown inline (the user asked for it). */
   showWorking: boolean;
   /** The machine-readable result, for the one-shot command's JSON and the shift log. */
-  data?: { reading: Reading; assessment: Assessment; verdicts?: Verdict[] };
+  data?: { reading?: Reading; assessment?: Assessment; verdicts?: Verdict[]; trend?: CorrectionTrend };
 }
 
 export function emptyReply(kind: ReplyKind, headline: string): Reply {

@@ -1,29 +1,27 @@
 /**
  * The shift log and the commands that use it: handover (this channel's shift summary by case tag),
- * trend (one tag's serial sodiums, checked against correction limits) and forget (clear the log).
- * A record holds only numbers, a checked case tag and a time; it expires after the shift.
+ * trend (one case's sodium course, judged by the correction model in core/correction.ts — from
+ * the log or from a series written in the message) and forget (one case, or the whole log).
+ * A record holds only numbers, a checked case tag, a time and finding codes. Sodium series live
+ * for SOLUTE_SERIES_HOURS (at least 48 h), so the 24 h and 48 h limits are judged on whole days;
+ * the handover summarises the last SOLUTE_SHIFT_HOURS.
  */
 import type { Assessment } from "../core/assess.js";
 import { CAUTIONS } from "../core/cautions.js";
+import { type CorrectionTrend, correctionTrend, type SodiumPoint } from "../core/correction.js";
 import { fmt, num, signed } from "../core/format.js";
 import { checkTag } from "../core/reader/index.js";
+import { clockAt, readSeries } from "../core/series.js";
 import type { Context, Conversation } from "./conversation.js";
 import { errorCode, log } from "./log.js";
 import { emptyReply, type Reply } from "./reply.js";
 import type { ResultKey, ShiftRecord } from "./store.js";
 
 const HOUR = 3_600_000;
-const DAY = 24 * HOUR;
-/** Below this span, two sodiums are too close together for a rate to mean anything. */
-const MIN_RATE_SPAN = HOUR;
-
-/** Correction limits for raising a low sodium, mmol/L per 24 h (REFERENCES.md §5). */
-export const CORRECTION_LIMITS = {
-  /** European guideline (Spasovski et al. 2014): at most 10 in the first 24 h, 8 in each 24 h after. */
-  standard: 10,
-  /** US panel (Verbalis et al. 2013): 8 per 24 h when osmotic-demyelination risk is high. */
-  highRisk: 8,
-} as const;
+/** Flags of marker records: a new episode on a reused bed, and a case at high risk. */
+export const EPISODE_START = "episode.start";
+export const HIGH_RISK = "risk.high";
+const DEFAULT_SERIES_MS = 48 * HOUR;
 
 /** Finding codes worth handing over. */
 const HANDOVER_FLAGS: Record<string, string> = {
@@ -63,6 +61,11 @@ export function recordOf(channel: string, tag: string, at: number, a: Assessment
   return { channel, tag, at, inputs: { ...a.inputs }, results, flags };
 }
 
+/** A marker record: numbers none, a flag only. */
+function marker(channel: string, tag: string, at: number, flag: string): ShiftRecord {
+  return { channel, tag, at, inputs: {}, results: {}, flags: [flag] };
+}
+
 /** "3 h 20 min ago" — times are shown relative, never as dates. */
 export function ago(ms: number): string {
   const minutes = Math.max(0, Math.round(ms / 60_000));
@@ -73,63 +76,109 @@ export function ago(ms: number): string {
   return m === 0 ? `${h} h ago` : `${h} h ${m} min ago`;
 }
 
-export interface SodiumTrend {
-  points: { at: number; sodium: number }[];
-  /** Change over the last 24 h (or the whole span, if shorter), mmol/L. */
-  change: number;
-  spanMs: number;
-  /** mmol/L per hour over that span; undefined when the span is under an hour. */
-  perHour?: number;
-  warnings: string[];
+/** "in 9 h 40 min" — when an open window closes, relative to now. */
+function inTime(ms: number): string {
+  const text = ago(ms);
+  return text === "just now" ? "now" : `in ${text.replace(" ago", "")}`;
 }
 
-/** The serial sodium trend of one tag's records, checked against the correction limits. */
-export function sodiumTrend(records: ShiftRecord[]): SodiumTrend | undefined {
-  const points = records
-    .filter((r) => r.inputs.sodium !== undefined)
-    .map((r) => ({ at: r.at, sodium: r.inputs.sodium! }));
-  if (points.length < 2) return undefined;
-  const last = points.at(-1)!;
-  // Baseline: the latest value at least 24 h before the last, else the earliest one.
-  const before = points.filter((p) => p.at <= last.at - DAY).at(-1);
-  const base = before ?? points[0]!;
-  const spanMs = last.at - base.at;
-  const change = last.sodium - base.sodium;
-  const perHour = spanMs >= MIN_RATE_SPAN ? change / (spanMs / HOUR) : undefined;
-  const warnings: string[] = [];
-  if (change > 0) {
-    const within = spanMs <= DAY ? `in ${fmt(spanMs / HOUR)} h` : "over 24 h";
-    if (change > CORRECTION_LIMITS.standard) {
-      warnings.push(
-        `Sodium rose ${signed(change)} mmol/L ${within}: above the 10 mmol/L limit for the first 24 h (European guideline, Spasovski 2014; the US panel allows 10–12) — correcting too fast risks osmotic demyelination.`,
-      );
-    } else if (change > CORRECTION_LIMITS.highRisk) {
-      warnings.push(
-        `Sodium rose ${signed(change)} mmol/L ${within}: above the 8 mmol/L limit for patients at high risk of osmotic demyelination (Na ≤ 105, hypokalaemia, alcohol use disorder, malnutrition, liver disease; Verbalis 2013).`,
-      );
-    }
-    if (perHour !== undefined && spanMs < DAY) {
-      const projected = perHour * 24;
-      if (projected > CORRECTION_LIMITS.highRisk && warnings.length === 0) {
-        warnings.push(
-          `At this rate (${signed(perHour, 2)} mmol/L per hour) 24 h would bring ${signed(projected)} mmol/L: above the 8 mmol/L high-risk limit${projected > CORRECTION_LIMITS.standard ? " and the 10 mmol/L standard limit" : ""}.`,
-        );
-      }
-    }
+export interface Episode {
+  tag: string;
+  records: ShiftRecord[];
+  /** When the episode began: its first sodium, or the "new" marker. */
+  startedAt?: number;
+  highRisk: boolean;
+}
+
+/** One case's current episode: the records after its last "new" marker. */
+export function episodeOf(records: readonly ShiftRecord[], tag: string): Episode {
+  const mine = records.filter((r) => r.tag === tag);
+  let startedAt: number | undefined;
+  for (const r of mine)
+    if (r.flags.includes(EPISODE_START) && (startedAt === undefined || r.at > startedAt)) startedAt = r.at;
+  // Only what was logged after the marker belongs to the new episode.
+  const episode =
+    startedAt === undefined
+      ? mine
+      : mine.filter((r) => r.at > startedAt! && !r.flags.includes(EPISODE_START));
+  const firstSodium = episode.find((r) => r.inputs.sodium !== undefined);
+  return {
+    tag,
+    records: episode,
+    // It began at its "new" marker, or else at its first sodium (which is hour 0 either way).
+    ...((startedAt ?? firstSodium?.at) !== undefined && { startedAt: startedAt ?? firstSodium?.at }),
+    highRisk: episode.some((r) => r.flags.includes(HIGH_RISK)),
+  };
+}
+
+/** The episode's sodiums as the correction model's points, hour 0 at its first sodium. */
+export function pointsOf(episode: Episode): { points: SodiumPoint[]; firstAt?: number } {
+  const withSodium = episode.records.filter((r) => r.inputs.sodium !== undefined);
+  const firstAt = withSodium[0]?.at;
+  if (firstAt === undefined) return { points: [] };
+  return {
+    firstAt,
+    points: withSodium.map((r) => ({
+      hours: (r.at - firstAt) / HOUR,
+      sodium: r.inputs.sodium!,
+      ...(r.inputs.glucose !== undefined && { glucose: r.inputs.glucose }),
+    })),
+  };
+}
+
+/** The episode's trend at `now`, with windows that close at clock-free relative times. */
+export function episodeTrend(episode: Episode, now: number, highRisk = false): CorrectionTrend | undefined {
+  const { points, firstAt } = pointsOf(episode);
+  if (firstAt === undefined) return undefined;
+  return correctionTrend(points, {
+    highRisk: highRisk || episode.highRisk,
+    nowHours: (now - firstAt) / HOUR,
+    clock: (h) => inTime(firstAt + h * HOUR - now),
+  });
+}
+
+/** The verdict first: too fast, worsening, or where the open window stands. */
+export function trendHeadline(tag: string, t: CorrectionTrend): string {
+  const first = t.findings[0];
+  const measure = t.measure === "correctedSodium" ? "corrected sodium" : "sodium";
+  if (first?.code === "correction.tooFast") {
+    const w = t.windows.find((x) => x.exceeded);
+    return w
+      ? `Too fast: ${tag} ${measure} ${signed((t.direction === "lowering" ? -1 : 1) * w.change)} in hours ${num(w.fromHours)}–${num(w.toHours)} (limit ${w.limit})`
+      : `Too fast: ${tag} ${measure} over 48 h`;
   }
-  return { points, change, spanMs, ...(perHour !== undefined && { perHour }), warnings };
+  if (first?.code === "correction.worsening")
+    return `Worsening: ${tag} ${measure} ${fmt(t.baseline)} → ${fmt(t.points.at(-1)!.sodium)}`;
+  const open = t.windows.find((w) => w.open);
+  if (open && t.roomLeft)
+    return `${tag}: ${signed((t.direction === "lowering" ? -1 : 1) * open.change)} so far in hours ${num(open.fromHours)}–${num(open.toHours)}; ${fmt(t.roomLeft.mmol)} more allowed`;
+  return `${tag}: within the correction limits`;
 }
 
-function trendLine(trend: SodiumTrend, now: number): string {
-  const series = trend.points
-    .slice(-6)
-    .map((p) => num(p.sodium))
-    .join(" → ");
-  const rate =
-    trend.perHour !== undefined
-      ? `, ${signed(trend.perHour, 2)} per hour`
-      : " (too close together for a rate)";
-  return `Na ${series} (first ${ago(now - trend.points[0]!.at)}): ${signed(trend.change)} mmol/L over ${fmt(trend.spanMs / HOUR)} h${rate}`;
+/** The trend as the JSON contract's `trend` object. */
+export function trendJson(t: CorrectionTrend) {
+  return {
+    direction: t.direction,
+    measure: t.measure,
+    baseline: t.baseline,
+    highRisk: t.highRisk,
+    points: t.points.map((p) => ({
+      hours: p.hours,
+      sodium: p.sodium,
+      ...(p.glucose !== undefined && { glucose: p.glucose }),
+    })),
+    windows: t.windows.map(({ fromHours, toHours, change, limit, exceeded, open, start }) => ({
+      fromHours,
+      toHours,
+      start,
+      change,
+      limit,
+      exceeded,
+      open,
+    })),
+    ...(t.roomLeft && { roomLeft: t.roomLeft }),
+    ...(t.projected && { projected: t.projected }),
+  };
 }
 
 const unavailable = (what: string): Reply => {
@@ -153,18 +202,20 @@ async function load(bot: Conversation, ctx: Context): Promise<ShiftRecord[] | un
   }
 }
 
+const TREND_CAUTION =
+  "The limits are guidance (European guideline, Spasovski 2014; US panel, Verbalis 2013): recheck against the lab's results, count any sodium not logged here, and weigh urine output, fluids given and symptoms.";
+
 export async function handover(ctx: Context, bot: Conversation): Promise<Reply> {
   const records = await load(bot, ctx);
   if (!records) return unavailable("handover");
   const now = bot.clock();
-  const byTag = new Map<string, ShiftRecord[]>();
-  for (const r of records) {
-    const list = byTag.get(r.tag);
-    if (list) list.push(r);
-    else byTag.set(r.tag, [r]);
-  }
+  const shiftFrom = now - bot.config.shiftMs;
+  const tags = [...new Set(records.filter((r) => r.at >= shiftFrom).map((r) => r.tag))].sort((a, b) =>
+    a.localeCompare(b, "en", { numeric: true }),
+  );
   const hours = Math.round(bot.config.shiftMs / HOUR);
-  if (byTag.size === 0) {
+  const calculations = records.filter((r) => r.at >= shiftFrom && Object.keys(r.inputs).length > 0).length;
+  if (tags.length === 0) {
     const reply = emptyReply("handover", `Handover: nothing logged in this channel in the last ${hours} h`);
     reply.notes.push(
       "Calculations are logged when the message carries a bed or bay tag, like: bed 12 Na 121 glu 6.2 mmol/L urea 3.1 mmol/L osm 254.",
@@ -174,12 +225,14 @@ export async function handover(ctx: Context, bot: Conversation): Promise<Reply> 
   }
   const reply = emptyReply(
     "handover",
-    `Handover: ${byTag.size} case${byTag.size === 1 ? "" : "s"}, ${records.length} calculation${records.length === 1 ? "" : "s"} in the last ${hours} h`,
+    `Handover: ${tags.length} case${tags.length === 1 ? "" : "s"}, ${calculations} calculation${calculations === 1 ? "" : "s"} in the last ${hours} h`,
   );
-  const tags = [...byTag.keys()].sort((a, b) => a.localeCompare(b, "en", { numeric: true }));
+  const dangers: string[] = [];
   for (const tag of tags) {
-    const list = byTag.get(tag)!;
-    const last = list.at(-1)!;
+    const episode = episodeOf(records, tag);
+    const list = episode.records.filter((r) => Object.keys(r.inputs).length > 0);
+    const last = list.at(-1);
+    if (!last) continue;
     const parts: string[] = [];
     const i = last.inputs;
     const r = last.results;
@@ -189,77 +242,144 @@ export async function handover(ctx: Context, bot: Conversation): Promise<Reply> 
     if (r.osmolalGap !== undefined) parts.push(`gap ${fmt(r.osmolalGap)}`);
     if (r.correctedSodiumKatz !== undefined)
       parts.push(
-        `corrected Na ${fmt(r.correctedSodiumKatz)}–${fmt(r.correctedSodiumHillier ?? r.correctedSodiumKatz)}`,
+        `corrected Na ${fmt(r.correctedSodiumKatz)} (Katz), ${fmt(r.correctedSodiumHillier ?? r.correctedSodiumKatz)} (Hillier)`,
       );
-    const flags = [...new Set(list.flatMap((x) => x.flags))].map((f) => HANDOVER_FLAGS[f]).filter(Boolean);
+    const began = episode.startedAt !== undefined ? `, episode began ${ago(now - episode.startedAt)}` : "";
     reply.facts.push({
-      label: `${tag} (${list.length}, latest ${ago(now - last.at)})`,
+      label: `${tag} (${list.length}, latest ${ago(now - last.at)}${began})`,
       value: parts.join(" · ") || "no results",
     });
+    const flags = [...new Set(list.flatMap((x) => x.flags))].map((f) => HANDOVER_FLAGS[f]).filter(Boolean);
     if (flags.length > 0) reply.interpretation.push(`${tag}: ${flags.join("; ")}.`);
-    const trend = sodiumTrend(list);
+    const trend = episodeTrend(episode, now);
     if (trend) {
-      reply.interpretation.push(`${tag}: ${trendLine(trend, now)}.`);
-      for (const w of trend.warnings) reply.interpretation.push(`${tag}: ${w}`);
+      const series = trend.points.map((p) => num(p.sodium)).join(" → ");
+      const verdict = trend.findings[0];
+      reply.interpretation.push(`${tag}: Na ${series}. ${verdict ? verdict.text : ""}`.trim());
+      if (verdict && verdict.severity === "danger")
+        dangers.push(
+          `${tag}: ${verdict.code === "correction.tooFast" ? "correction too fast" : "sodium worsening"}`,
+        );
     }
   }
-  reply.notes.push("Type forget to clear this channel's log now; it clears itself after the shift.");
-  reply.cautions = [CAUTIONS.general];
+  if (dangers.length > 0) reply.headline = `Handover — ${dangers.join("; ")}. ${reply.headline}`;
+  reply.notes.push(
+    "forget bed 12 clears one case; forget clears this channel's log. Records clear themselves.",
+  );
+  reply.cautions = [TREND_CAUTION, CAUTIONS.general];
   reply.shareable = true;
   return reply;
 }
 
-export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
-  const code = ctx.rest.replace(/^#/, "").trim();
-  const words = code.split(/\s+/);
-  const prefix = ["bed", "bay", "room", "cubicle", "cube"].includes((words[0] ?? "").toLowerCase())
-    ? `${words[0]!.toLowerCase()} `
-    : "";
-  const checked = checkTag(prefix ? (words[1] ?? "") : (words[0] ?? ""));
-  if (!code || !checked.ok) {
-    const reply = emptyReply("trend", "Which case? Name its tag");
-    reply.problems.push({
-      code: "trend.noTag",
-      message: `Write the tag, like: trend bed 12 or trend #4B.${checked.ok ? "" : ` ${checked.reason}`}`,
-    });
-    return reply;
-  }
-  const tag = prefix + checked.tag;
-  const records = await load(bot, ctx);
-  if (!records) return unavailable("trend");
-  const list = records.filter((r) => r.tag === tag);
-  const t = sodiumTrend(list);
-  const now = bot.clock();
-  if (!t) {
-    const reply = emptyReply("trend", `Trend for ${tag}: fewer than two sodiums logged this shift`);
-    reply.notes.push(`Log sodiums with the tag, like: ${tag} Na 121.`);
-    return reply;
-  }
-  const reply = emptyReply(
-    "trend",
-    `Sodium trend for ${tag}: ${signed(t.change)} mmol/L over ${fmt(t.spanMs / HOUR)} h`,
+/** The tag named after a command word: "bed 12", "#4B", "bay 4B"; undefined when none was named. */
+export function tagIn(text: string): { tag?: string; rest: string; problem?: string } {
+  const m = /^\s*(?:(bed|bay|room|cubicle|cube)\s+([A-Za-z0-9-]{1,12})|#([A-Za-z0-9-]{1,12}))(?=\s|$)/i.exec(
+    text,
   );
-  for (const p of t.points) reply.facts.push({ label: ago(now - p.at), value: `Na ${num(p.sodium)} mmol/L` });
-  reply.interpretation.push(trendLine(t, now), ...t.warnings);
-  if (t.warnings.length === 0 && t.change > 0) {
-    reply.interpretation.push(
-      `Within the correction limits so far (8 mmol/L per 24 h at high risk, 10 in the first 24 h otherwise).`,
-    );
+  if (!m) return { rest: text };
+  const checked = checkTag(m[2] ?? m[3]!);
+  if (!checked.ok) return { rest: text.slice(m[0].length), problem: checked.reason };
+  return { tag: (m[1] ? `${m[1].toLowerCase()} ` : "") + checked.tag, rest: text.slice(m[0].length) };
+}
+
+const RISK_WORDS =
+  /\bhigh[-\s]?risk\b|\balcohol(?:\s*use)?\b|\bmalnutrition\b|\bmalnourished\b|\bliver disease\b|\bcirrhosis\b|\bhypokal(?:a)?emia\b/i;
+
+export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
+  const { tag, rest, problem } = tagIn(ctx.rest);
+  const highRisk = RISK_WORDS.test(rest);
+  const series = readSeries(rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
+  let t: CorrectionTrend | undefined;
+  let source: string;
+  let shownName: string | undefined;
+  if (series.timed || series.problems.length > 0) {
+    // A series written in the message: answered exactly as a logged one.
+    if (series.points.length < 2) {
+      const reply = emptyReply("trend", "Trend: the series could not be read");
+      reply.problems.push(...series.problems.map(({ code, message }) => ({ code, message })));
+      if (series.problems.length === 0)
+        reply.problems.push({
+          code: "trend.tooFew",
+          message:
+            "Give at least two sodiums, each with its time, like: trend Na 118 at 22:00, 121 at 04:00.",
+        });
+      return reply;
+    }
+    const firstClock = series.firstClock;
+    t = correctionTrend(series.points, {
+      highRisk,
+      ...(firstClock !== undefined && { clock: (h: number) => clockAt(firstClock, h) }),
+    });
+    source = "as written in the message";
+  } else {
+    let name = tag;
+    let refused = problem;
+    const word = rest.trim();
+    if (!name && word && !/\s/.test(word)) {
+      const checked = checkTag(word.replace(/^#/, ""));
+      if (checked.ok) name = checked.tag;
+      else refused = checked.reason;
+    }
+    if (!name) {
+      const reply = emptyReply("trend", "Which case? Name its tag, or write the series");
+      reply.problems.push({
+        code: "trend.noTag",
+        message: `Write the tag, like trend bed 12 — or the series itself: trend Na 118 at 22:00, 121 at 04:00, 126 at 09:30.${refused ? ` ${refused}` : ""}`,
+      });
+      return reply;
+    }
+    const records = await load(bot, ctx);
+    if (!records) return unavailable("trend");
+    const episode = episodeOf(records, name);
+    t = episodeTrend(episode, bot.clock(), highRisk);
+    source =
+      episode.startedAt !== undefined
+        ? `logged for ${name}, episode began ${ago(bot.clock() - episode.startedAt)}`
+        : `logged for ${name}`;
+    if (!t) {
+      const reply = emptyReply("trend", `Trend for ${name}: fewer than two sodiums logged in this episode`);
+      reply.notes.push(
+        `Log sodiums with the tag, like: ${name} Na 121 — or write the series: trend Na 118 at 22:00, 121 at 04:00.`,
+      );
+      return reply;
+    }
+    shownName = name;
   }
-  if (t.change < 0)
-    reply.interpretation.push(
-      "The limits above are for raising a low sodium; for a falling sodium follow your local protocol.",
-    );
-  reply.cautions = [
-    "Serial sodiums show only what was logged here: recheck against the lab's results, count any not logged, and consider urine output and fluids given.",
-    CAUTIONS.general,
-  ];
+  const name = tag ?? shownName ?? "this series";
+  const reply = emptyReply("trend", trendHeadline(name, t!));
+  for (const p of t!.points) {
+    const corrected = p.corrected
+      ? ` · corrected ${fmt(p.corrected.katz)} (Katz), ${fmt(p.corrected.hillier)} (Hillier)`
+      : "";
+    reply.facts.push({ label: `hour ${num(p.hours, 1)}`, value: `Na ${num(p.sodium)} mmol/L${corrected}` });
+  }
+  reply.interpretation.push(...t!.findings.map((f) => f.text));
+  if (t!.highRisk && t!.direction === "raising")
+    reply.notes.push("High risk of osmotic demyelination: the 8 mmol/L limit applies in every 24 h.");
+  reply.notes.push(`Series ${source}; windows count from the first sodium (hour 0).`);
+  reply.cautions = [TREND_CAUTION, CAUTIONS.general];
   reply.shareable = true;
+  reply.data = { trend: t! };
   return reply;
 }
 
 export async function forget(ctx: Context, bot: Conversation): Promise<Reply> {
+  const { tag, problem } = tagIn(ctx.rest);
+  if (problem) {
+    const reply = emptyReply("forget", "Which case?");
+    reply.problems.push({ code: "tag.refused", message: problem });
+    return reply;
+  }
   try {
+    if (tag) {
+      const n = await bot.store.forgetTag(ctx.channel, tag);
+      const reply = emptyReply(
+        "forget",
+        `${tag} cleared: ${n} record${n === 1 ? "" : "s"} removed; the rest of the log is kept.`,
+      );
+      reply.shareable = true;
+      return reply;
+    }
     const n = await bot.store.forget(ctx.channel);
     const reply = emptyReply(
       "forget",
@@ -273,16 +393,58 @@ export async function forget(ctx: Context, bot: Conversation): Promise<Reply> {
   }
 }
 
+/** How long a record lives: the longer of the shift summary and the sodium series. */
+export function retentionMs(bot: Conversation): number {
+  return Math.max(bot.config.shiftMs, bot.config.seriesMs ?? DEFAULT_SERIES_MS);
+}
+
+/** Starts a new episode for a reused bed ("bed 12 new"), before anything else is logged for it. */
+export async function startEpisode(ctx: Context, bot: Conversation, tag: string): Promise<boolean> {
+  try {
+    await bot.store.addRecord(marker(ctx.channel, tag, bot.clock(), EPISODE_START), retentionMs(bot));
+    return true;
+  } catch (error) {
+    log("warn", "store.log-unavailable", { code: errorCode(error) });
+    return false;
+  }
+}
+
+/** Marks a case as high risk for the rest of its episode. */
+export async function markHighRisk(ctx: Context, bot: Conversation, tag: string): Promise<void> {
+  try {
+    await bot.store.addRecord(marker(ctx.channel, tag, bot.clock() - 1, HIGH_RISK), retentionMs(bot));
+  } catch (error) {
+    log("warn", "store.log-unavailable", { code: errorCode(error) });
+  }
+}
+
+const NEW_EPISODE = /(^|\s)new(\s+(episode|patient|admission))?(\s|$)/i;
+
 /** After a calculation with a case tag, log it; a store failure is said, never fatal. */
 export async function logCalculation(ctx: Context, reply: Reply, bot: Conversation): Promise<void> {
   const reading = reply.data?.reading;
   const assessment = reply.data?.assessment;
-  if (!reading?.tag || !assessment || Object.keys(assessment.inputs).length === 0) return;
-  try {
-    await bot.store.addRecord(
-      recordOf(ctx.channel, reading.tag, bot.clock(), assessment),
-      bot.config.shiftMs,
+  if (!reading?.tag) return;
+  if (NEW_EPISODE.test(ctx.rest)) {
+    const started = await startEpisode(ctx, bot, reading.tag);
+    if (started && reading.values.length === 0) {
+      // "bed 12 new" on its own: the answer is the new episode, not "no lab values".
+      reply.kind = "settings";
+      reply.headline = `${reading.tag}: a new episode starts now`;
+      reply.problems = reply.problems.filter((p) => p.code !== "input.empty");
+      reply.shareable = true;
+    }
+    reply.notes.push(
+      started
+        ? `A new episode for ${reading.tag}: earlier sodiums are no longer counted in its trend.`
+        : "The shift log is unavailable just now: the new episode could not be started.",
     );
+  }
+  if (!assessment || Object.keys(assessment.inputs).length === 0) return;
+  // A calculation sent with "new" belongs to the new episode: it is logged just after the marker.
+  const at = bot.clock() + (NEW_EPISODE.test(ctx.rest) ? 1 : 0);
+  try {
+    await bot.store.addRecord(recordOf(ctx.channel, reading.tag, at, assessment), retentionMs(bot));
     reply.notes.push(`Logged for the handover under ${reading.tag}.`);
   } catch (error) {
     log("warn", "store.log-unavailable", { code: errorCode(error) });

@@ -44,6 +44,8 @@ export interface Store {
   listRecords(channel: string, now: number): Promise<ShiftRecord[]>;
   /** Clears the channel's shift log at once; returns how many records went. */
   forget(channel: string): Promise<number>;
+  /** Removes one case's records (a bed tag is reused when a patient leaves); returns how many went. */
+  forgetTag(channel: string, tag: string): Promise<number>;
   /** True the first time `key` is seen within `ttlMs` — de-duplicates retried deliveries. */
   firstSeen(key: string, ttlMs: number): Promise<boolean>;
   /** Counts a hit on `key` in a fixed window; true while the count is within `limit`. */

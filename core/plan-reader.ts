@@ -19,6 +19,8 @@ export interface PlanInputs {
   litres?: number;
   freeWater: boolean;
   highRisk: boolean;
+  /** Reverse planning: the change wanted, mmol/L (negative to lower). */
+  target?: number;
 }
 
 export interface PlanReading {
@@ -86,14 +88,16 @@ export function readPlan(text: string): PlanReading {
     if (take(re)) plan.infusate = { ...INFUSATES[id]! };
   }
 
+  // Added potassium, in the usual spellings: "+ KCl 20", "KCl 20 mmol", "+ 20 mmol KCl",
+  // "NS + 40 KCl", "with 20 mmol/L KCl", "20 mmol/L KCl added".
   const added = take(
     new RegExp(
-      `(?:\\+\\s*|\\badd(?:ed)?\\s+|\\bwith\\s+)(?:kcl|k\\+?|potassium)\\s*[:=]?\\s*${NUM}\\s*(?:mmol(?:/l)?|meq(?:/l)?)?|\\bkcl\\s*[:=]?\\s*${NUM}\\s*(?:mmol(?:/l)?|meq(?:/l)?)?`,
+      `(?:\\+\\s*|\\badd(?:ed)?\\s+|\\bwith\\s+)(?:kcl|k\\+?|potassium(?: chloride)?)\\s*[:=]?\\s*${NUM}\\s*(?:mmol(?:/l)?|meq(?:/l)?)?|\\bkcl\\s*[:=]?\\s*${NUM}\\s*(?:mmol(?:/l)?|meq(?:/l)?)?|(?:\\+\\s*|\\badd(?:ed)?\\s+|\\bwith\\s+)?${NUM}\\s*(?:mmol(?:/l)?|meq(?:/l)?)?\\s*(?:of\\s+)?(?:kcl|potassium chloride)(?:\\s+added)?\\b`,
       "i",
     ),
   );
   if (added) {
-    plan.addedPotassium = number(added[1] ?? added[2]!);
+    plan.addedPotassium = number(added[1] ?? added[2] ?? added[3]!);
     if (plan.addedPotassium > 200) {
       problems.push({
         code: "plan.potassiumImplausible",
@@ -156,6 +160,29 @@ export function readPlan(text: string): PlanReading {
     const years = Number(ageYears[1]);
     // 18 and 65 as the bands' edges: common practice.
     plan.age = years < 18 ? "child" : years >= 65 ? "elderly" : "adult";
+  }
+
+  // Reverse planning: "how much 3% for +5", "to raise it by 5", "to bring it down 4", "target +6".
+  const target = take(
+    /\b(?:how\s+much\b[^\d+\-−]{0,40}?)?(?:for|by|target|to\s+(?:raise|lift)(?:\s+it)?(?:\s+by)?|to\s+(?:bring|take|lower)(?:\s+it)?\s+(down|up)(?:\s+by)?)\s*([+\-−]?\s*\d{1,2}(?:[.,]\d)?)\s*(?:mmol(?:\/l)?)?(?=\s|$)/i,
+  );
+  if (target) {
+    const magnitude = number(target[2]!.replace(/[\s+]/g, "").replace("−", "-"));
+    const down = /down|lower/i.test(target[0]) || /^[-−]/.test(target[2]!.trim());
+    plan.target = down ? -Math.abs(magnitude) : Math.abs(magnitude);
+    if (Math.abs(plan.target) < 0.5 || Math.abs(plan.target) > 20) {
+      problems.push({
+        code: "plan.targetImplausible",
+        message: "A target change should be between 0.5 and 20 mmol/L.",
+      });
+      delete plan.target;
+    }
+  }
+  if (take(/\bhow\s+much\b/i) && plan.target === undefined) {
+    problems.push({
+      code: "plan.targetMissing",
+      message: 'Say the change wanted, like "how much 3% for +5" or "to bring it down 4".',
+    });
   }
 
   if (take(/\bfree\s*water(?:\s*deficit)?\b/i)) plan.freeWater = true;

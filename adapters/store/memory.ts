@@ -44,6 +44,13 @@ export class MemoryStore implements Store {
     return n;
   }
 
+  async forgetTag(channel: string, tag: string): Promise<number> {
+    const list = this.records.get(channel) ?? [];
+    const kept = list.filter((r) => r.value.tag !== tag);
+    this.records.set(channel, kept);
+    return list.length - kept.length;
+  }
+
   async firstSeen(key: string, ttlMs: number): Promise<boolean> {
     const now = this.now();
     this.sweep(now);

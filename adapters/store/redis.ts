@@ -122,6 +122,21 @@ export class RedisStore implements Store {
     return count;
   }
 
+  async forgetTag(channel: string, tag: string): Promise<number> {
+    const key = `${P}log:${channel}`;
+    const members = await this.client.zRange(key, 0, -1);
+    // The tag is the second element of each member's array; only whole matches are removed.
+    const mine = members.filter((m) => {
+      try {
+        return (JSON.parse(m) as unknown[])[1] === tag;
+      } catch {
+        return false;
+      }
+    });
+    if (mine.length === 0) return 0;
+    return await this.client.zRem(key, mine);
+  }
+
   async firstSeen(key: string, ttlMs: number): Promise<boolean> {
     return (await this.client.set(`${P}seen:${key}`, "1", { NX: true, PX: ttlMs })) === "OK";
   }

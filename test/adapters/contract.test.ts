@@ -139,9 +139,9 @@ describe("a pasted report on every surface", () => {
   it("reads the serum and urine values by specimen and checks the lab's calculated field", async () => {
     const text = REQUESTS.at(-1)!;
     const reply = await neutral(text);
-    expect(reply.data!.reading.inputs).toMatchObject({ sodium: 126, urea: 14, measuredOsmolality: 262 });
-    expect(reply.data!.reading.inputs.urineSodium).toBe(71);
-    expect(reply.data!.reading.inputs.urineOsmolality).toBe(480);
+    expect(reply.data!.reading!.inputs).toMatchObject({ sodium: 126, urea: 14, measuredOsmolality: 262 });
+    expect(reply.data!.reading!.inputs.urineSodium).toBe(71);
+    expect(reply.data!.reading!.inputs.urineOsmolality).toBe(480);
     expect(reply.readAs).toMatch(/urine Na 71 mmol\/L/);
     expect(reply.notes.join()).toMatch(/As printed: The calculated osmolality 281/);
     for (const rendered of [await viaTerminal(text), await viaSlack(text, 99), await viaTeams(text)]) {

@@ -49,13 +49,13 @@ describe("calculating", () => {
   it("asks about an ambiguous unit instead of guessing", async () => {
     const r = await ask("Na 130 glucose 30");
     expect(r.problems.map((p) => p.code)).toContain("unit.ambiguous");
-    expect(r.data!.assessment.inputs.glucose).toBeUndefined();
+    expect(r.data!.assessment!.inputs.glucose).toBeUndefined();
   });
 
   it("refuses an implausible value with a clear message", async () => {
     const r = await ask("Na 1280 glu 5 mmol/L");
     expect(r.problems[0]!.code).toBe("value.implausible");
-    expect(r.data!.assessment.inputs.sodium).toBeUndefined();
+    expect(r.data!.assessment!.inputs.sodium).toBeUndefined();
   });
 
   it("says so when there are no lab values", async () => {
@@ -84,10 +84,10 @@ describe("calculating", () => {
 describe("units", () => {
   it("sets the channel's unit system, per channel", async () => {
     expect((await ask("units si")).headline).toMatch(/SI/);
-    expect((await ask("glucose 30 Na 130")).data!.assessment.inputs.glucose).toBe(30);
+    expect((await ask("glucose 30 Na 130")).data!.assessment!.inputs.glucose).toBe(30);
     expect((await ask("glucose 30 Na 130", "C2")).problems.map((p) => p.code)).toContain("unit.ambiguous");
     await ask("units conventional");
-    expect((await ask("glucose 540 Na 130")).data!.assessment.inputs.glucose).toBeCloseTo(540 / 18.0156, 6);
+    expect((await ask("glucose 540 Na 130")).data!.assessment!.inputs.glucose).toBeCloseTo(540 / 18.0156, 6);
     await ask("units none");
     expect((await ask("glucose 540 Na 130")).problems.map((p) => p.code)).toContain("unit.ambiguous");
   });

@@ -133,28 +133,64 @@ describe("the plan command", () => {
     expect(r.cautions.at(-1)).toBe(CAUTIONS.general);
   });
 
-  it("warns when the plan would correct too fast", async () => {
-    // REFERENCES.md §5 [C]: ≤ 10 mmol/L in the first 24 h (Spasovski 2014).
+  it("leads with the verdict when the plan would correct too fast", async () => {
+    // REFERENCES.md §5 [C]: ≤ 10 mmol/L in the first 24 h (Spasovski 2014). Check value [D]: +13.0.
     const r = await ask("plan Na 110 TBW 30 L 1 L 3% NaCl");
-    expect(r.interpretation[0]).toMatch(/^Too fast: \+13\.0 mmol\/L would exceed the 10 mmol\/L limit/);
+    expect(r.headline).toMatch(/^Too fast: 1000 mL of 3% NaCl: \+13\.0 mmol\/L expected/);
+    expect(r.interpretation[0]).toMatch(/^Too fast: \+13\.0 mmol\/L would exceed the limit of 10/);
     expect(r.interpretation.join(" ")).toMatch(/about 5 mmol\/L in the first hour/);
   });
 
   it("uses the high-risk limit when asked, or when Na ≤ 105", async () => {
     // REFERENCES.md §5: 8 mmol/L per 24 h at high risk (Verbalis 2013 — from memory [M]).
     const r = await ask("plan Na 118 TBW 30 L 1 L fluid Na 400 high risk");
-    expect(r.interpretation[0]).toMatch(/Too fast for a high-risk patient: \+9\.1/);
+    expect(r.interpretation[0]).toMatch(
+      /Too fast: \+9\.1 mmol\/L would exceed the limit of 8 in this 24 h window \(high risk\)/,
+    );
     const low = await ask("plan Na 104 TBW 30 L 1 L fluid Na 380");
-    expect(low.interpretation[0]).toMatch(/high-risk/);
+    expect(low.interpretation[0]).toMatch(/high risk: Na ≤ 105/);
   });
 
-  it("counts the correction already logged for the case in the last 24 h", async () => {
+  it("counts the correction already logged for the case in the current window", async () => {
     await ask("bed 12 Na 114");
     now += 6 * 3_600_000;
     await ask("bed 12 Na 119");
     const r = await ask("plan bed 12 Na 119 TBW 30 L 1 L 3% NaCl");
-    expect(r.interpretation.join(" ")).toMatch(/Logged for bed 12 this shift: \+5\.0 mmol\/L over 6\.0 h/);
+    expect(r.interpretation.join(" ")).toMatch(/Logged for bed 12: \+5\.0 mmol\/L so far in hours 0–24/);
     expect(r.interpretation[0]).toMatch(/\+17\.7 mmol\/L \(\+5\.0 already \+ \+12\.7 planned\)/);
+    expect(r.data!.trend!.points.map((p) => p.sodium)).toEqual([114, 119]);
+  });
+
+  it("counts its own sodium when it is newer than the log", async () => {
+    await ask("bed 5 Na 114");
+    now += 10 * 3_600_000;
+    // No 122 was logged: the plan's own sodium is the latest point (+8 already).
+    const r = await ask("plan bed 5 Na 122 TBW 30 L 500 mL 0.9% NaCl");
+    expect(r.interpretation.join(" ")).toMatch(/\+8\.0 mmol\/L so far/);
+  });
+
+  it("reverse planning: the volume of 3% NaCl for +5, of 5% dextrose to bring it down 4", async () => {
+    // REFERENCES.md §5 [D]: Na 110, TBW 30 L, 3% → +13.0 per litre, so +5 needs 0.385 L.
+    const up = await ask("plan Na 110 TBW 30 L how much 3% NaCl for +5");
+    expect(up.facts.find((f) => f.label === "Volume for +5.0 mmol/L")!.value).toBe("about 385 mL");
+    // REFERENCES.md §5 [D]: Na 134, TBW 30 L, 5% dextrose −4.32 per litre, so −4 needs 0.925 L (0.93 rounded).
+    const down = await ask("plan Na 134 TBW 30 L how much 5% dextrose to bring it down 4");
+    expect(down.facts.find((f) => f.label === "Volume for −4.0 mmol/L")!.value).toBe("about 925 mL");
+    const wrong = await ask("plan Na 110 TBW 30 L how much 5% dextrose for +5");
+    expect(wrong.problems.map((p) => p.code)).toContain("plan.targetWrongWay");
+  });
+
+  it("added potassium in every usual spelling", () => {
+    for (const text of [
+      "plan Na 120 70 kg man adult 1 L 0.9% NaCl + 20 mmol KCl",
+      "plan Na 120 70 kg man adult 1 L NS + 20 KCl",
+      "plan Na 120 70 kg man adult 1 L 0.9% NaCl with 20 mmol/L KCl",
+      "plan Na 120 70 kg man adult 1 L 0.9% NaCl + KCl 20",
+      "plan Na 120 70 kg man adult 1 L 0.9% NaCl KCl 20 mmol",
+      "plan Na 120 70 kg man adult 1 L 0.9% NaCl 20 mmol/L KCl added",
+    ]) {
+      expect(readPlan(text).plan.addedPotassium, text).toBe(20);
+    }
   });
 
   it("gives the free water deficit in hypernatraemia", async () => {

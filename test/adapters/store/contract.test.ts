@@ -76,6 +76,24 @@ describe.each([
     expect(await store.listRecords("c1", now + 1500)).toHaveLength(0);
   });
 
+  it("forgetTag removes one case only", async () => {
+    const now = Date.now();
+    const rec = (tag: string, at: number) => ({
+      channel: "c9",
+      tag,
+      at,
+      inputs: { sodium: 120 },
+      results: {},
+      flags: [],
+    });
+    await store.addRecord(rec("bed 12", now), 3_600_000);
+    await store.addRecord(rec("bed 12", now + 1), 3_600_000);
+    await store.addRecord(rec("bed 3", now + 2), 3_600_000);
+    expect(await store.forgetTag("c9", "bed 12")).toBe(2);
+    expect((await store.listRecords("c9", now)).map((r) => r.tag)).toEqual(["bed 3"]);
+    expect(await store.forgetTag("c9", "bed 12")).toBe(0);
+  });
+
   it("forget clears the channel at once", async () => {
     const now = Date.now();
     await store.addRecord(record("c1", "bed 1", now, 118), 60_000);

@@ -103,7 +103,7 @@ describe("replicas sharing one Redis", () => {
     const a = await replica();
     const b = await replica();
     await ask(a.bot, "units si");
-    expect((await ask(b.bot, "glucose 30 Na 130")).data!.assessment.inputs.glucose).toBe(30);
+    expect((await ask(b.bot, "glucose 30 Na 130")).data!.assessment!.inputs.glucose).toBe(30);
     expect(await a.store.hit("rate:x", 1, 60_000)).toBe(true);
     expect(await b.store.hit("rate:x", 1, 60_000)).toBe(false);
   });
