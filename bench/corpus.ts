@@ -17,3 +17,24 @@ export const CORPUS: string[] = [
   "Mr Example MRN 1234567 Na 128 glu 6 mmol/L urea 4 mmol/L",
   "check Na 128 glu 540 mg/dL urea 14 mmol/L calc osm 810",
 ];
+
+/** Invented messages, one or more per command, for the first view's budgets (test and bench). */
+export const BUDGET_MESSAGES = [
+  "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
+  "Na 118 K 3.2 glu 6 mmol/L urea 3 mmol/L osm 248 urine osm 420 urine Na 45 urine K 30",
+  "Na 124 glu 5 mmol/L urea 4 mmol/L osm 285",
+  "Na 139 glu 6.1 mmol/L urea 5.2 mmol/L osm 318 EtOH 230 mg/dL Cl 101 HCO3 12",
+  "Na 140 glu 5 mmol/L urea 5 mmol/L osm 320 Cl 104 HCO3 26",
+  "Na 132 Cl 96 HCO3 10 glu 25 mmol/L urea 6 mmol/L ketones 5.2 pH 7.15",
+  "Na 145 glu 40 mmol/L urea 12 mmol/L ketones 0.8 pH 7.38 HCO3 22",
+  "Sodium (135 - 145 mmol/L): 126 L\nGlucose 9.4 H mmol/L\nUrea\t14\tmmol/L\t2.5-7.8\tH\nOsmolality 262 mOsm/kg (275-295) L\nUrine:\nNa 71\nOsm 480",
+  "glucose 30 Na 1280",
+  "check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 = 290",
+  "check Na 128 glu 540 mg/dL corrected Na 138.6",
+  "plan Na 110 TBW 30 L 1 L 3% NaCl",
+  "plan Na 160 70 kg man adult free water",
+  "trend Na 110 (0 h) 122 (12 h) 119 (20 h)",
+  "trend Na 118 at 22:00, 121 at 04:00, 126 at 09:30",
+  "handover",
+  "help",
+];

@@ -320,6 +320,61 @@ async function memory(): Promise<void> {
 }
 
 // --- handover ---------------------------------------------------------------------------------
+/** The first view's budgets over the invented messages of bench/corpus.ts (also a unit test). */
+async function replies(): Promise<void> {
+  const { MemoryStore } = await import("../adapters/store/memory.js");
+  const { Conversation } = await import("../bot/conversation.js");
+  const { loadConfig } = await import("../bot/config.js");
+  const { renderText, FIRST_VIEW } = await import("../bot/text.js");
+  const { render } = await import("../adapters/slack/render.js");
+  const { BUDGET_MESSAGES } = await import("./corpus.js");
+  await loadUnits();
+  const bot = new Conversation(new MemoryStore(), loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789" }));
+  let lines = 0;
+  let chars = 0;
+  let cautions = 0;
+  let blocks = 0;
+  for (const m of BUDGET_MESSAGES) {
+    const reply = await bot.handle({ text: m, channel: "bench", platform: "console" });
+    const text = renderText(reply);
+    if (reply.kind === "result") {
+      lines = Math.max(lines, text.split("\n").length);
+      chars = Math.max(chars, text.length);
+    }
+    cautions = Math.max(cautions, text.split("\n").filter((l) => l.startsWith("⚠")).length);
+    const b = render(reply, { source: m, offerPost: true }).blocks;
+    const button = b.findIndex((x) => x.type === "actions");
+    blocks = Math.max(blocks, button === -1 ? b.length : button);
+  }
+  rows.push({
+    what: "first view",
+    measure: `largest over ${BUDGET_MESSAGES.length} invented messages: calculation text lines / characters; caution lines; Slack blocks before the expand button`,
+    ours: `${lines} lines, ${chars} chars; ${cautions} cautions; ${blocks} blocks`,
+    reference: "—",
+    ratio: "—",
+    budget: `≤ ${FIRST_VIEW.lines} lines, ≤ ${FIRST_VIEW.characters} chars; ≤ 3; ≤ 8`,
+    met: lines <= FIRST_VIEW.lines && chars <= FIRST_VIEW.characters && cautions <= 3 && blocks <= 8,
+  });
+}
+
+/** The Teams card's height at phone width, rendered by adaptivecards in headless Chromium. */
+async function card(): Promise<void> {
+  const { measureCards, CARD_BUDGET_PX } = await import("./card.js");
+  await loadUnits();
+  const measures = await measureCards(!quick && !only);
+  const readme = measures?.find((m) => m.name === "README example" && m.width === 360);
+  rows.push({
+    what: "Teams card",
+    measure:
+      "README example rendered by adaptivecards in headless Chromium at 360 px wide (screenshots in docs/)",
+    ours: readme ? `${readme.height} px tall` : "chromium not installed",
+    reference: "—",
+    ratio: "—",
+    budget: `≤ ${CARD_BUDGET_PX} px`,
+    met: readme !== undefined && readme.height <= CARD_BUDGET_PX,
+  });
+}
+
 async function handover(): Promise<void> {
   await loadUnits();
   const config = loadConfig({ SOLUTE_SECRET: "bench-secret-0123456789" });
@@ -381,6 +436,8 @@ async function main(): Promise<void> {
     if (want("teams")) await teams(connectorUrl);
     if (want("memory")) await memory();
     if (want("handover")) await handover();
+    if (want("replies")) await replies();
+    if (want("card")) await card();
   } finally {
     await stop(connector);
   }

@@ -1,11 +1,14 @@
 /** Builds the reply for a message with lab values: facts, interpretation, working, cautions. */
+
+import { ANALYTES } from "../core/analytes.js";
 import type { Assessment, Finding } from "../core/assess.js";
 import { sortFindings } from "../core/findings.js";
-import { fmt } from "../core/format.js";
+import { fmt, num } from "../core/format.js";
 import type { Reading } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
 import { checkClaims } from "./check.js";
 import { emptyReply, type Fact, type Reply } from "./reply.js";
+import { keyNumbersOf, verdictOf, visibleCautionsOf, whyOf } from "./summary.js";
 
 export function factsOf(a: Assessment): Fact[] {
   const r = a.results;
@@ -60,6 +63,19 @@ export function headlineOf(a: Assessment): string {
   return first ? first.text : "Read, but nothing could be calculated from these values";
 }
 
+/** The values as read, compactly: units only where they are not the usual mmol/L or mOsm/kg. */
+export function readShortOf(reading: Reading): string {
+  return reading.values
+    .map((v) => {
+      const a = ANALYTES[v.analyte];
+      const unit = v.unit === "pH" || v.unit === "mmol/L" || v.unit === "mOsm/kg" ? "" : ` ${v.unit}`;
+      const gas = v.specimen === "bloodGas" ? " (gas)" : "";
+      const label = v.key === "measuredOsmolality" ? "osm" : a.label;
+      return `${label} ${v.below ? "<" : ""}${num(v.written, 6)}${unit}${gas}`;
+    })
+    .join(", ");
+}
+
 export function computeReply(reading: Reading, a: Assessment, showWorking: boolean): Reply {
   if (reading.values.length === 0) {
     const reply = emptyReply("nothing", "No lab values found in that message");
@@ -78,9 +94,15 @@ export function computeReply(reading: Reading, a: Assessment, showWorking: boole
   // Values a lab or an analyser calculated and printed are checked against ours, never used.
   const printed =
     reading.claims.length > 0 ? checkClaims(reading, a).map((v) => `As printed: ${v.text}`) : [];
+  const verdict = verdictOf(a.findings);
+  const keyNumbers = keyNumbersOf(a);
   return {
     kind: "result",
-    headline: headlineOf(a),
+    headline: verdict ?? headlineOf(a),
+    ...(keyNumbers && verdict && { keyNumbers }),
+    readShort: readShortOf(reading),
+    why: whyOf(a.findings),
+    visibleCautions: interpreting ? visibleCautionsOf(a.cautionIds) : [],
     readAs: reading.echo + (reading.tag ? ` — case ${reading.tag}` : ""),
     facts: factsOf(a),
     interpretation: sortedFindings(a).map((f) => f.text),

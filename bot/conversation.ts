@@ -20,12 +20,15 @@ import { channelKey, type Platform } from "./privacy.js";
 import { emptyReply, type Reply } from "./reply.js";
 import { registerShiftCommands } from "./shift.js";
 import type { ChannelSettings, Store } from "./store.js";
+import { verdictOf } from "./summary.js";
 
 export interface Request {
   text: string;
   /** The platform's channel (or conversation) ID; hashed before it reaches the store. */
   channel: string;
   platform: Platform;
+  /** A button re-rendering an answer already given: it is answered, never logged again. */
+  replay?: boolean;
 }
 
 export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits"> & {
@@ -101,9 +104,9 @@ export class Conversation {
       return reply;
     }
     const settings = await this.settingsFor(channel);
-    const working = /(^|\s)(working|--working|show working)(\s|$)/i;
+    const working = /(^|\s)(working|--working|show working|more)(\s|$)/i;
     const showWorking = working.test(text);
-    const cleaned = text.replace(/(^|\s)(show working|--working|working)(?=\s|$)/gi, " ").trim();
+    const cleaned = text.replace(/(^|\s)(show working|--working|working|more)(?=\s|$)/gi, " ").trim();
     const first = cleaned.split(/\s+/)[0] ?? "";
     const handler = this.commands.get(first.toLowerCase());
     const ctx: Context = {
@@ -117,6 +120,8 @@ export class Conversation {
       }),
     };
     const reply = handler ? await handler(ctx, this) : await this.calculate(ctx);
+    // "working" (or "more") in the message shows everything, whatever the command.
+    if (showWorking) reply.showWorking = true;
     log("info", "reply", {
       platform: request.platform,
       code: reply.kind,
@@ -129,9 +134,9 @@ export class Conversation {
   /** The default: read the values and compute everything that can be computed. */
   async calculate(ctx: Context): Promise<Reply> {
     const reading = readMessage(ctx.rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
-    const assessment = assess(reading.inputs, assessOptions(reading, this.config));
+    const assessment = assess(reading.inputs, assessOptions(reading, this.config, ctx.unitSystem));
     const reply = computeReply(reading, assessment, ctx.showWorking);
-    for (const hook of this.afterCalculation) await hook(ctx, reply);
+    if (!ctx.request.replay) for (const hook of this.afterCalculation) await hook(ctx, reply);
     return reply;
   }
 
@@ -257,7 +262,7 @@ export class Conversation {
       }
     }
     const reading = readMessage(text, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
-    const assessment = assess(reading.inputs, assessOptions(reading, this.config));
+    const assessment = assess(reading.inputs, assessOptions(reading, this.config, ctx.unitSystem));
     const base = computeReply(reading, assessment, ctx.showWorking);
     if (reading.claims.length === 0) {
       const reply = emptyReply("check", "Nothing to check");
@@ -281,10 +286,17 @@ export class Conversation {
         v.text = `The total ${num(arithmetic.claimed, 6)} is wrong: ${arithmetic.text} is ${fmt(arithmetic.value)}${formulaRight ? `, which matches Solute's ${fmt(v.ours)} — the formula was right, the adding up was not` : `; Solute gives ${fmt(v.ours)}`}.`;
       }
     }
+    // Line 1 is the verdict on the claim; a danger in the values themselves leads line 2.
+    const danger = assessment.findings.some((f) => f.severity === "danger")
+      ? verdictOf(assessment.findings)
+      : undefined;
+    const keyNumbers = [danger, base.keyNumbers].filter(Boolean).join(" · ");
     return {
       ...base,
       kind: "check",
       headline: checkHeadline(verdicts, arithmetic),
+      ...(keyNumbers && { keyNumbers }),
+      why: verdicts.map((v) => v.text).slice(0, 2),
       interpretation: [...verdicts.map((v) => v.text), ...base.interpretation],
       problems: [...problems, ...base.problems],
       notes: [...notes, ...base.notes.filter((n) => !n.startsWith("As printed:"))],
@@ -299,7 +311,11 @@ export class Conversation {
  * is compared in its own unit), and a lab range printed beside the measured osmolality, which then
  * takes the place of the configured one (the reading notes say so).
  */
-export function assessOptions(reading: Reading, config: BotConfig): AssessOptions {
+export function assessOptions(
+  reading: Reading,
+  config: BotConfig,
+  unitSystem?: "si" | "conventional",
+): AssessOptions {
   const glucose = reading.values.find((v) => v.key === "glucose");
   const osm = reading.values.find((v) => v.key === "measuredOsmolality");
   const printed = osm?.labRange;
@@ -318,6 +334,7 @@ export function assessOptions(reading: Reading, config: BotConfig): AssessOption
   }
   return {
     osmolalityRange,
+    ...(unitSystem && { unitSystem }),
     ...(config.anionGapRange && { anionGapRange: config.anionGapRange }),
     ...(glucose && { glucoseWritten: { value: glucose.written, unit: glucose.unit } }),
   };

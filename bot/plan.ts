@@ -6,7 +6,7 @@
  * set by the words or by the values in the message and stays with the case. The verdict comes
  * first: a plan the limits forbid says so before its numbers.
  */
-import { CAUTIONS } from "../core/cautions.js";
+import { CAUTIONS, SHORT_CAUTIONS } from "../core/cautions.js";
 import { correctionTrend, planFits, type SodiumPoint } from "../core/correction.js";
 import {
   adrogueMadias,
@@ -239,14 +239,15 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
       : "";
     if (direction === "raising" && change > 0) {
       if (soFar?.code === "correction.tooFast" || !fits.fits) {
-        const sum = fits.already > 0 ? ` (${signed(fits.already)} already + ${signed(change)} planned)` : "";
+        const sum =
+          fits.already > 0 ? ` (${signed(fits.already)} already and ${signed(change)} planned)` : "";
         reply.interpretation.unshift(
           `Too fast: ${signed(fits.total)} mmol/L${sum} would exceed the limit of ${fits.limit} in this 24 h window${riskText} (European guideline, Spasovski 2014; Verbalis 2013 at high risk). ${fmt(fits.room)} more is allowed now. Risk of osmotic demyelination.`,
         );
         reply.headline = `Too fast: ${reply.headline}; only ${fmt(fits.room)} more is allowed in this window`;
       } else {
         reply.interpretation.push(
-          `${signed(fits.total)} mmol/L${fits.already > 0 ? ` (${signed(fits.already)} already + ${signed(change)} planned)` : ""} is within the limit of ${fits.limit} for this 24 h window${riskText}; ${fmt(fits.room - change)} would be left.`,
+          `${signed(fits.total)} mmol/L${fits.already > 0 ? ` (${signed(fits.already)} already and ${signed(change)} planned)` : ""} is within the limit of ${fits.limit} for this 24 h window${riskText}; ${fmt(fits.room - change)} would be left.`,
         );
       }
     } else if (direction === "raising" && change < 0) {
@@ -274,6 +275,12 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
     if (soFar?.code === "correction.worsening") reply.interpretation.unshift(soFar.text);
   }
   reply.cautions = [...(p.infusate ? PLAN_CAUTIONS : PLAN_CAUTIONS.slice(1)), CAUTIONS.general];
+  reply.visibleCautions = [
+    p.infusate
+      ? "An estimate for one litre at once: it ignores losses and urine output — recheck the sodium often."
+      : "It ignores ongoing losses: recheck the sodium often.",
+    SHORT_CAUTIONS.general,
+  ];
   reply.shareable = reading.identifiers.length === 0;
   if (trend) reply.data = { trend };
   return reply;

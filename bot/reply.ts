@@ -33,7 +33,16 @@ export interface ReplyProblem {
 
 export interface Reply {
   kind: ReplyKind;
+  /** Line 1: what matters most, in words, danger first. */
   headline: string;
+  /** Line 2: the key numbers, compactly. */
+  keyNumbers?: string;
+  /** How the message was read, compactly ("Na 128, glucose 540 mg/dL, urea 14 mmol/L, osm 310"). */
+  readShort?: string;
+  /** At most three short lines for the first view: why, and the next step. */
+  why: string[];
+  /** The cautions of the first view: at most two that fit, then the general one; one line each. */
+  visibleCautions: string[];
   /** How the message was read ("Na 128 mmol/L, glucose 540 mg/dL = 29.97 mmol/L, …"). */
   readAs?: string;
   facts: Fact[];
@@ -43,7 +52,7 @@ export interface Reply {
   problems: ReplyProblem[];
   /** Notes on how something was read or done; not problems, not interpretation. */
   notes: string[];
-  /** Every interpreting reply ends with these. */
+  /** Every caution, in full with its source; every interpreting reply ends with the general one. */
   cautions: string[];
   /** Whether the reply may be posted for the whole channel (help and problems stay private). */
   shareable: boolean;
@@ -57,6 +66,8 @@ export function emptyReply(kind: ReplyKind, headline: string): Reply {
   return {
     kind,
     headline,
+    why: [],
+    visibleCautions: [],
     facts: [],
     interpretation: [],
     working: [],

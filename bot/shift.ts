@@ -7,7 +7,7 @@
  * the handover summarises the last SOLUTE_SHIFT_HOURS.
  */
 import type { Assessment } from "../core/assess.js";
-import { CAUTIONS } from "../core/cautions.js";
+import { CAUTIONS, SHORT_CAUTIONS } from "../core/cautions.js";
 import { type CorrectionTrend, correctionTrend, type SodiumPoint } from "../core/correction.js";
 import { fmt, num, signed } from "../core/format.js";
 import { checkTag } from "../core/reader/index.js";
@@ -202,6 +202,8 @@ async function load(bot: Conversation, ctx: Context): Promise<ShiftRecord[] | un
   }
 }
 
+const TREND_SHORT =
+  "Counts only the sodiums logged or written here: weigh fluids, urine output and symptoms.";
 const TREND_CAUTION =
   "The limits are guidance (European guideline, Spasovski 2014; US panel, Verbalis 2013): recheck against the lab's results, count any sodium not logged here, and weigh urine output, fluids given and symptoms.";
 
@@ -358,6 +360,13 @@ export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
     reply.notes.push("High risk of osmotic demyelination: the 8 mmol/L limit applies in every 24 h.");
   reply.notes.push(`Series ${source}; windows count from the first sodium (hour 0).`);
   reply.cautions = [TREND_CAUTION, CAUTIONS.general];
+  reply.visibleCautions = [TREND_SHORT, SHORT_CAUTIONS.general];
+  reply.why = t!.findings.slice(0, 3).map((f) =>
+    f.text
+      .split(/(?<=\.)\s+(?=[A-Z])/)
+      .slice(0, 2)
+      .join(" "),
+  );
   reply.shareable = true;
   reply.data = { trend: t! };
   return reply;

@@ -1,29 +1,89 @@
 /**
  * Plain-text rendering of a reply: the terminal's format, and the fallback text every chat
  * platform gets beside its rich format.
+ *
+ * The first view reads on a phone: the verdict, the key numbers, how the message was read, at most
+ * three short lines of why and next step, the problems, at most two fitting cautions and the
+ * general one. "more" (or the word "working" in the message) shows everything else: every
+ * finding, the numbers with their formulas, the working, every caution with its source.
  */
+import { CAUTIONS, SHORT_CAUTIONS } from "../core/cautions.js";
 import type { Reply } from "./reply.js";
 
 export interface TextOptions {
-  /** Include the working even when the user did not ask for it. */
+  /** Everything: every finding, the facts with formulas, the working, every caution. */
   working?: boolean;
-  /**
-   * The short form, for a platform's notification fallback beside its rich format: headline,
-   * reading, facts, problems and the general caution.
-   */
+  /** The short form, for a platform's notification fallback: verdict, numbers, problems, caution. */
   brief?: boolean;
+}
+
+/** The terminal's pointer to everything else. */
+export const MORE_HINT = '(Type "more": every finding, formulas, working, sources.)';
+
+/** Budgets of the first view, checked by test/bot/budgets.test.ts. */
+export const FIRST_VIEW = { lines: 10, characters: 700 } as const;
+
+/** Typography for reading: true minus signs before numbers. */
+export function typeset(text: string): string {
+  return text.replace(/(^|[\s(/])-(?=\d)/g, "$1−");
+}
+
+/** The why lines that fit the first view beside the problems. */
+export function whyLines(reply: Reply): string[] {
+  const why = reply.why.length > 0 ? reply.why : reply.interpretation.slice(0, 3);
+  const fixed =
+    1 +
+    (reply.keyNumbers ? 1 : 0) +
+    (reply.readShort ? 1 : 0) +
+    reply.problems.length +
+    cautionsOf(reply).length +
+    1;
+  return why.slice(0, Math.max(1, Math.min(3, FIRST_VIEW.lines - fixed)));
+}
+
+/** The first view's cautions: the chosen ones, or the general one alone. */
+export function cautionsOf(reply: Reply): string[] {
+  if (reply.visibleCautions.length > 0) return reply.visibleCautions;
+  const general = reply.cautions.at(-1);
+  if (!general) return [];
+  return [general === CAUTIONS.general ? SHORT_CAUTIONS.general : general];
+}
+
+/** Whether there is more to show than the first view. */
+export function hasMore(reply: Reply): boolean {
+  return (
+    reply.working.length > 0 ||
+    reply.facts.length > 0 ||
+    reply.interpretation.length > whyLines(reply).length ||
+    reply.notes.length > 0 ||
+    reply.cautions.length > cautionsOf(reply).length
+  );
 }
 
 export function renderText(reply: Reply, options: TextOptions = {}): string {
   if (options.brief) return briefText(reply);
+  if (options.working || reply.showWorking) return fullText(reply);
   const lines: string[] = [reply.headline];
+  if (reply.keyNumbers) lines.push(reply.keyNumbers);
+  if (reply.readShort) lines.push(`Read: ${reply.readShort}`);
+  for (const w of whyLines(reply)) if (w !== reply.headline) lines.push(`• ${w}`);
+  for (const p of reply.problems) lines.push(`! ${p.message}`);
+  for (const c of cautionsOf(reply)) lines.push(`⚠ ${c}`);
+  if (hasMore(reply)) lines.push(MORE_HINT);
+  return typeset(lines.join("\n"));
+}
+
+/** Everything, grouped: the verdict, how it was read, the numbers, every finding, the working, every caution. */
+export function fullText(reply: Reply): string {
+  const lines: string[] = [reply.headline];
+  if (reply.keyNumbers) lines.push(reply.keyNumbers);
   if (reply.readAs) lines.push(`Read as: ${reply.readAs}`);
   if (reply.facts.length > 0) {
     lines.push("");
-    for (const f of reply.facts) lines.push(`• ${f.label}: ${f.value}${f.formula ? `  [${f.formula}]` : ""}`);
+    for (const f of reply.facts) lines.push(`• ${f.label}: ${f.value}${f.formula ? ` (${f.formula})` : ""}`);
   }
   if (reply.interpretation.length > 0) {
-    lines.push("");
+    lines.push("", "What it means:");
     for (const i of reply.interpretation) lines.push(`• ${i}`);
   }
   if (reply.problems.length > 0) {
@@ -34,25 +94,22 @@ export function renderText(reply: Reply, options: TextOptions = {}): string {
     lines.push("");
     for (const n of reply.notes) lines.push(`Note: ${n}`);
   }
-  if ((reply.showWorking || options.working) && reply.working.length > 0) {
+  if (reply.working.length > 0) {
     lines.push("", "Working:");
     for (const w of reply.working) lines.push(`  ${w}`);
-  } else if (reply.working.length > 0) {
-    lines.push("", "(Add the word 'working' to your message to see every step.)");
   }
   if (reply.cautions.length > 0) {
-    lines.push("");
+    lines.push("", "Cautions:");
     for (const c of reply.cautions) lines.push(`⚠ ${c}`);
   }
-  return lines.join("\n");
+  return typeset(lines.join("\n"));
 }
 
 function briefText(reply: Reply): string {
   const lines = [reply.headline];
-  if (reply.readAs) lines.push(`Read as: ${reply.readAs}`);
-  for (const f of reply.facts) lines.push(`${f.label}: ${f.value}`);
+  if (reply.keyNumbers) lines.push(reply.keyNumbers);
   for (const p of reply.problems) lines.push(`! ${p.message}`);
   const general = reply.cautions.at(-1);
   if (general) lines.push(`⚠ ${general}`);
-  return lines.join("\n");
+  return typeset(lines.join("\n"));
 }

@@ -40,6 +40,8 @@ export interface AssessOptions {
   anionGapRange?: Range;
   /** The glucose as written, so each glucose criterion is compared in its own unit. */
   glucoseWritten?: { value: number; unit: Unit };
+  /** The channel's unit system: texts show its units first. */
+  unitSystem?: "si" | "conventional";
 }
 
 export const DEFAULT_OSMOLALITY_RANGE: Range = { low: 275, high: 295 };
@@ -65,6 +67,8 @@ export interface Assessment {
   /** Sorted: danger first. */
   findings: Finding[];
   cautions: string[];
+  /** The same cautions by id (the general one last), so a renderer can choose and shorten them. */
+  cautionIds: CautionId[];
 }
 
 const ALCOHOL_KEYS = ["methanol", "ethyleneGlycol", "isopropanol", "acetone", "propyleneGlycol"] as const;
@@ -102,8 +106,9 @@ export function assess(inputs: LabInputs, options: AssessOptions = {}): Assessme
   const agCorrected = albuminCorrectedAnionGap(inputs);
   push(agCorrected);
 
-  flagCritical(inputs, findings, cautions);
-  const tonicity = readTonicity(inputs, gap?.value, range);
+  const si = options.unitSystem === "si";
+  flagCritical(inputs, findings, cautions, si);
+  const tonicity = readTonicity(inputs, gap?.value, range, si);
   findings.push(...tonicity.findings);
   if (tonicity.pseudo) cautions.add("pseudohyponatraemia");
 
@@ -121,7 +126,8 @@ export function assess(inputs: LabInputs, options: AssessOptions = {}): Assessme
   );
 
   let residual: number | undefined;
-  if (gap) residual = readGap(inputs, gap, alternatives, findings, cautions, tonicity.pseudo, ketoacidosis);
+  if (gap)
+    residual = readGap(inputs, gap, alternatives, findings, cautions, tonicity.pseudo, ketoacidosis, si);
   if (ag)
     readAnionGap(
       ag,
@@ -148,21 +154,28 @@ export function assess(inputs: LabInputs, options: AssessOptions = {}): Assessme
   if (gap) results.osmolalGap = gap;
   if (ag) results.anionGap = ag;
   if (katz && hillier) results.correctedSodium = { katz, hillier };
-  const texts: string[] = [];
-  for (const id of cautions) texts.push(CAUTIONS[id]);
-  texts.push(CAUTIONS.general);
-  return { inputs, results, alternatives, findings: sortFindings(findings), cautions: texts };
+  const cautionIds: CautionId[] = [...cautions, "general"];
+  return {
+    inputs,
+    results,
+    alternatives,
+    findings: sortFindings(findings),
+    cautions: cautionIds.map((id) => CAUTIONS[id]),
+    cautionIds,
+  };
 }
 
-function flagCritical(inputs: LabInputs, findings: Finding[], cautions: Set<CautionId>): void {
+function flagCritical(inputs: LabInputs, findings: Finding[], cautions: Set<CautionId>, si: boolean): void {
   for (const key of ["sodium", "potassium", "glucose"] as const satisfies InputKey[]) {
     const value = inputs[key];
     const critical = ANALYTES[key].critical;
     if (value === undefined || !critical) continue;
     const shown =
-      key === "glucose"
-        ? `${fmt(glucoseMgPerDl(value), 0)} mg/dL (${num(value, 1)} mmol/L)`
-        : `${num(value)} mmol/L`;
+      key !== "glucose"
+        ? `${num(value)} mmol/L`
+        : si
+          ? `${num(value, 1)} mmol/L (${fmt(glucoseMgPerDl(value), 0)} mg/dL)`
+          : `${fmt(glucoseMgPerDl(value), 0)} mg/dL (${num(value, 1)} mmol/L)`;
     const low = critical.low !== undefined && value < critical.low;
     const high = critical.high !== undefined && value > critical.high;
     if (!low && !high) continue;
@@ -171,6 +184,7 @@ function flagCritical(inputs: LabInputs, findings: Finding[], cautions: Set<Caut
       severity: "danger",
       subject: `${key}.${low ? "low" : "high"}`,
       text: `Critical ${low ? "low" : "high"} ${ANALYTES[key].name}: ${shown}.`,
+      short: `critical ${low ? "low" : "high"} ${ANALYTES[key].name} ${shown.split(" (")[0]}`,
     });
     cautions.add("criticalValue");
   }
@@ -185,6 +199,7 @@ function readGap(
   cautions: Set<CautionId>,
   pseudo: boolean,
   ketoacidosis: boolean,
+  si: boolean,
 ): number {
   cautions.add("gapFormulaDependent");
   const g = gap.value;
@@ -194,6 +209,7 @@ function readGap(
       code: "gap.negative",
       severity: "warning",
       text: `Osmolal gap ${fmt(g)} is well below zero: measured lower than calculated usually means a unit, entry or sample error — recheck the inputs.`,
+      brief: `Osmolal gap ${fmt(g)}: measured below calculated — usually a unit, entry or sample error.`,
     });
   } else if (g < GAP_LIMIT) {
     findings.push({
@@ -207,6 +223,7 @@ function readGap(
       code: "gap.raised",
       severity: "warning",
       text: `Osmolal gap${afterEthanol} ${fmt(g)} is raised: ${GAP_LIMIT} or more (the usual limit; Hoffman 1993 found −2 ± 6; Krasowski 2012 used > 14).`,
+      brief: `Osmolal gap${afterEthanol} ${fmt(g)} is raised (usual limit: below ${GAP_LIMIT}).`,
     });
   }
 
@@ -260,13 +277,24 @@ function readGap(
       (alcohol) => impliedConcentration(residual, alcohol),
     );
     alternatives.push(...implied);
-    const list = implied.map((r) => `${r.label.split(" if ")[0]} about ${fmt(r.value, 0)}`).join(", ");
+    // In SI units one mmol/L of any alcohol is about one mOsm/kg: the residual gap itself.
+    const list = si
+      ? `about ${fmt(residual, 0)} mmol/L of methanol, ethylene glycol, isopropanol or propylene glycol (${implied
+          .map((r) => `${r.label.split(" ")[0]} ${fmt(r.value, 0)}`)
+          .join(", ")}`
+      : implied.map((r) => `${r.label.split(" if ")[0]} about ${fmt(r.value, 0)}`).join(", ");
     findings.push({
       code: "toxicAlcohol.possible",
       severity: ketoacidosis ? "warning" : "danger",
       text: ketoacidosis
-        ? `A toxic alcohol stays in the differential: an unexplained osmolal gap of ${fmt(residual)}, though ketoacidosis raises the gap too. If one alcohol alone made it: ${list} mg/dL.`
-        : `Toxic alcohol possible: unexplained osmolal gap of ${fmt(residual)}. If one alcohol alone made it: ${list} mg/dL. Next: methanol and ethylene glycol levels if available, a blood gas and lactate, and a call to your poisons service.`,
+        ? `A toxic alcohol stays in the differential: an unexplained osmolal gap of ${fmt(residual)}, though ketoacidosis raises the gap too. If one alcohol alone made it: ${list} mg/dL${si ? ")" : ""}.`
+        : `Toxic alcohol possible: unexplained osmolal gap of ${fmt(residual)}. If one alcohol alone made it: ${list} mg/dL${si ? ")" : ""}. Next: methanol and ethylene glycol levels if available, a blood gas and lactate, and a call to your poisons service.`,
+      brief: ketoacidosis
+        ? `Unexplained osmolal gap ${fmt(residual)} beside ketoacidosis: a toxic alcohol stays in the differential.`
+        : `Unexplained gap ${fmt(residual)}. Next: methanol, ethylene glycol, blood gas, lactate; call your poisons service.`,
+      short: ketoacidosis
+        ? `toxic alcohol in the differential (gap ${fmt(residual)})`
+        : `toxic alcohol possible (unexplained gap ${fmt(residual)})`,
     });
   }
   return residual;
@@ -293,6 +321,7 @@ function readAnionGap(
           code: "anionGap.raised",
           severity: "warning",
           text: `${label} ${fmt(v)} mmol/L is raised (above ${range.high}, the range set for this lab).`,
+          brief: `${label} ${fmt(v)} is raised (lab range up to ${range.high}).`,
         }
       : {
           code: "anionGap.normal",
@@ -308,6 +337,7 @@ function readAnionGap(
       code: "pattern.earlyAlcohol",
       severity: "warning",
       text: "High osmolal gap with an anion gap that is not raised fits an early toxic alcohol ingestion, before it is metabolised (Kraut & Kurtz 2008).",
+      brief: "Anion gap not raised: fits an early ingestion, before the alcohol is metabolised.",
     });
   } else if (osmRaised && raised) {
     findings.push({
@@ -316,12 +346,16 @@ function readAnionGap(
       text: ketoacidosis
         ? "Both gaps raised: ketoacidosis explains part of both; a toxic alcohol being metabolised remains possible (Kraut & Kurtz 2008)."
         : "Both gaps raised: a toxic alcohol being metabolised, or ketoacidosis, lactic acidosis or renal failure (Kraut & Kurtz 2008).",
+      brief: ketoacidosis
+        ? "Both gaps raised: ketoacidosis explains part; an alcohol being metabolised remains possible."
+        : "Both gaps raised: an alcohol being metabolised — or ketoacidosis, lactic acidosis, renal failure.",
     });
   } else if (!osmRaised && raised && !ketoacidosis) {
     findings.push({
       code: "pattern.lateAlcohol",
       severity: "info",
       text: `Raised anion gap with a normal osmolal gap: ${lactic ? "lactic acidosis" : "ketoacidosis, lactic acidosis or renal failure"} first; a late toxic alcohol presentation is still possible once it is metabolised (Kraut & Kurtz 2008).`,
+      brief: `Normal osmolal gap: ${lactic ? "lactic acidosis" : "ketoacidosis, lactic acidosis or renal failure"} first; a late toxic alcohol stays possible.`,
     });
   }
 }

@@ -28,3 +28,31 @@ export const CAUTIONS = {
 } as const;
 
 export type CautionId = keyof typeof CAUTIONS;
+
+/**
+ * The same cautions in one short line each, for the first view of a reply on a phone; the full
+ * texts, with their sources, are in the JSON and behind "more".
+ */
+export const SHORT_CAUTIONS: Record<CautionId, string> = {
+  general: "Decision support only; local protocols and the treating clinician decide.",
+  gapNormalDoesNotExclude: "A normal osmolal gap does not rule out a toxic alcohol.",
+  gapTimeCourse: "The osmolal gap falls as an alcohol is metabolised, while the anion gap rises.",
+  gapFormulaDependent: "What counts as a normal gap depends on the formula.",
+  osmometerMethod: "Vapour-pressure osmometers miss volatile alcohols.",
+  gapOtherCauses: "Ketoacidosis, renal failure, shock and mannitol raise the gap too.",
+  ethanolFactor: "The ethanol factor (÷ 4.61 or ÷ 3.7) can change whether the gap is raised.",
+  glucoseCorrection: "Corrected sodium is an estimate: Katz and Hillier differ.",
+  pseudohyponatraemia: "Recheck the sodium by direct ISE (blood gas) before treating it.",
+  anionGapRange: "Anion-gap ranges depend on the analyser: use your lab's.",
+  criticalValue: "Critical value: confirm it and follow your critical-result process.",
+};
+
+/** Which cautions matter most, in order: at most two are shown in the first view. */
+export const CAUTION_PRIORITY: readonly CautionId[] = [
+  "criticalValue",
+  "pseudohyponatraemia",
+  "gapOtherCauses",
+  "osmometerMethod",
+  "ethanolFactor",
+  "gapTimeCourse",
+];

@@ -95,12 +95,14 @@ export function readCrisis(c: CrisisInputs): Finding[] {
         code: "dka.met",
         severity: "danger",
         text: `Diabetic ketoacidosis criteria met${severity ? ` (${severity} by pH and bicarbonate)` : ""}: β-hydroxybutyrate ${num(bhb)} ≥ 3.0, ${acid}, ${glucoseText} (2024 consensus).`,
+        brief: `DKA${severity ? ` (${severity})` : ""}: β-hydroxybutyrate ${num(bhb)}, ${acid} (2024 consensus).`,
       });
     } else if (acidosis && bhb === undefined && dkaGlucose) {
       out.push({
         code: "dka.undecided",
         severity: "warning",
         text: `Acidosis (${acid}) with glucose ≥ 11.1 mmol/L: ketoacidosis cannot be decided — ketones not given. Send a blood β-hydroxybutyrate (≥ 3.0 mmol/L for DKA).`,
+        brief: `Acidosis (${acid}) with high glucose: ketoacidosis first. Next: blood β-hydroxybutyrate (DKA if ≥ 3.0).`,
       });
     } else if (dkaGlucose && acidosis === undefined && bhb !== undefined && bhb >= KETONES) {
       out.push({
@@ -167,6 +169,7 @@ export function readCrisis(c: CrisisInputs): Finding[] {
       code: "dkaHhs.mixed",
       severity: "danger",
       text: `Mixed DKA and HHS: ketoacidosis with glucose ≥ 33.3 mmol/L (600 mg/dL) and a hyperosmolar state — ${parts.join(", ")}.${caveat} ${older}.`,
+      brief: `Mixed DKA and HHS: ${parts.join(", ")}.`,
     });
     return out;
   }
@@ -175,6 +178,7 @@ export function readCrisis(c: CrisisInputs): Finding[] {
       code: "hhs.met",
       severity: "danger",
       text: `Hyperosmolar hyperglycaemic state criteria met (2024 consensus): glucose ≥ 33.3 mmol/L (600 mg/dL), ${parts.join(", ")}.${notGiven.length > 0 ? ` Not given: ${notGiven.join(", ")} — DKA not excluded until they are.` : ""}${caveat} ${older}.`,
+      brief: `HHS (2024): ${parts.join(", ")}.${notGiven.length > 0 ? ` Next: ${notGiven.join(", ")}.` : ""}${caveat ? " The total rests on an unexplained gap." : ""}`,
     });
   } else if (osmMet) {
     out.push({

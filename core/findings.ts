@@ -10,6 +10,10 @@ export interface Finding {
   text: string;
   /** What a general code is about, e.g. "sodium.low" for critical.value. */
   subject?: string;
+  /** A few words for a reply's first line, when the text's first clause would not do. */
+  short?: string;
+  /** One short line for the first view (why, and the next step), when the text is long. */
+  brief?: string;
 }
 
 const ORDER: Record<Severity, number> = { danger: 0, warning: 1, info: 2 };

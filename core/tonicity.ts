@@ -67,7 +67,12 @@ export interface TonicityReading {
  * Classes the sodium by tonicity. `gap` is the osmolal gap (after ethanol), when it could be
  * computed; `range` is the lab's reference range for measured osmolality.
  */
-export function readTonicity(i: LabInputs, gap: number | undefined, range: Range): TonicityReading {
+export function readTonicity(
+  i: LabInputs,
+  gap: number | undefined,
+  range: Range,
+  si = false,
+): TonicityReading {
   const findings: Finding[] = [];
   const na = i.sodium;
   const measured = i.measuredOsmolality;
@@ -76,9 +81,18 @@ export function readTonicity(i: LabInputs, gap: number | undefined, range: Range
     na !== undefined && i.glucose !== undefined ? 2 * na + i.glucose + (i.mannitol ?? 0) : undefined;
   const fromMeasured =
     measured !== undefined && i.urea !== undefined ? measured - ineffective.total : undefined;
-  const value = fromMeasured ?? calculatedEffective;
-  const from =
-    fromMeasured !== undefined ? "measured" : calculatedEffective !== undefined ? "calculated" : undefined;
+  // An unexplained gap may be an alcohol (ineffective): then tonicity is taken from 2·Na + glucose.
+  const useMeasured =
+    fromMeasured !== undefined &&
+    !(gap !== undefined && gap >= GAP_LIMIT && calculatedEffective !== undefined);
+  const value = useMeasured ? fromMeasured : (calculatedEffective ?? fromMeasured);
+  const from: "measured" | "calculated" | undefined = useMeasured
+    ? "measured"
+    : calculatedEffective !== undefined
+      ? "calculated"
+      : fromMeasured !== undefined
+        ? "measured"
+        : undefined;
   const out: TonicityReading = {
     pseudo: false,
     findings,
@@ -101,7 +115,7 @@ export function readTonicity(i: LabInputs, gap: number | undefined, range: Range
   }
 
   // Hyponatraemia.
-  const effectiveSolute = effectiveSoluteText(i);
+  const effectiveSolute = effectiveSoluteText(i, si);
   if (measured === undefined) {
     const by =
       calculatedEffective !== undefined
@@ -111,6 +125,7 @@ export function readTonicity(i: LabInputs, gap: number | undefined, range: Range
       code: "hyponatraemia.unclassified",
       severity: "warning",
       text: `Hyponatraemia (Na ${num(na)}), not yet classed: send a measured osmolality to tell true (hypotonic) from translocational or pseudohyponatraemia.${by}`,
+      brief: `Hyponatraemia not yet classed. Next: a measured osmolality.`,
     });
     return out;
   }
@@ -155,6 +170,7 @@ export function readTonicity(i: LabInputs, gap: number | undefined, range: Range
         code: "pseudohyponatraemia.possible",
         severity: "warning",
         text: `Likely pseudohyponatraemia: the osmolal gap of ${fmt(gap)} is what a falsely low sodium would make. Recheck the sodium by direct ISE (blood-gas analyser) and send lipids and total protein; the gap is not read as a toxic alcohol here.`,
+        brief: `A gap of ${fmt(gap)} is what a falsely low sodium makes. Next: sodium by direct ISE (blood gas), lipids, total protein.`,
       });
       return out;
     }
@@ -174,6 +190,7 @@ export function readTonicity(i: LabInputs, gap: number | undefined, range: Range
       code: "hyponatraemia.hypertonic",
       severity: "warning",
       text: `Hypertonic (translocational) hyponatraemia: measured osmolality ${num(measured)}; ${effectiveSolute} draws water out of cells${effText ? ` (${effText})` : ""}.`,
+      brief: `Translocational: ${effectiveSolute} draws water out of cells.`,
     });
   } else {
     findings.push({
@@ -186,10 +203,14 @@ export function readTonicity(i: LabInputs, gap: number | undefined, range: Range
 }
 
 /** " glucose 45 mmol/L" or "mannitol …" when an effective solute is high enough to matter. */
-function effectiveSoluteText(i: LabInputs): string {
+function effectiveSoluteText(i: LabInputs, si: boolean): string {
   const parts: string[] = [];
   // Glucose above about 10 mmol/L (180 mg/dL) moves the sodium by 2 mmol/L or more [common practice].
-  if (i.glucose !== undefined && i.glucose >= 10) parts.push(`glucose ${num(i.glucose, 1)} mmol/L`);
+  if (i.glucose !== undefined && i.glucose >= 10) {
+    const mmol = `${num(i.glucose, 1)} mmol/L`;
+    const mg = `${num(i.glucose * 18.0156, 0)} mg/dL`;
+    parts.push(`glucose ${si ? `${mmol} (${mg})` : `${mg} (${mmol})`}`);
+  }
   if (i.mannitol !== undefined && i.mannitol >= 5) parts.push(`mannitol ${num(i.mannitol, 1)} mmol/L`);
   return parts.join(" and ");
 }

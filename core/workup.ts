@@ -66,12 +66,14 @@ export function readWorkup(i: LabInputs, hypotonic: boolean): Finding[] {
         code: "urine.lowSodium",
         severity: "info",
         text: `With ${osmText}urine sodium ${num(uNa)} ≤ 30: low effective arterial blood volume (losses, heart failure, cirrhosis, nephrotic syndrome) (European guideline, to be confirmed locally).`,
+        brief: `Urine sodium ${num(uNa)} ≤ 30: low effective arterial blood volume (losses, heart failure, cirrhosis).`,
       });
     } else {
       out.push({
         code: "urine.highSodium",
         severity: "info",
         text: `With ${osmText}urine sodium ${num(uNa)} > 30: consider diuretics, kidney disease, SIAD, adrenal insufficiency or hypothyroidism; assess extracellular volume (European guideline, to be confirmed locally).`,
+        brief: `Urine sodium ${num(uNa)} > 30: diuretics, kidney disease, SIAD, adrenal insufficiency? Assess volume status.`,
       });
     }
   }

@@ -118,8 +118,8 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     await track(() => next());
   });
 
-  const answer = (text: string, channel: string): Promise<Reply> =>
-    bot.handle({ text, channel, platform: "slack" });
+  const answer = (text: string, channel: string, replay = false): Promise<Reply> =>
+    bot.handle({ text, channel, platform: "slack", ...(replay && { replay }) });
 
   app.command(config.command, async ({ command, ack, respond }) => {
     // The answer usually takes well under a millisecond: then it goes back in the acknowledgement
@@ -179,7 +179,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     await ack();
     const source = "value" in action ? (action.value ?? "") : "";
     const channel = body.channel?.id ?? "";
-    const reply = await answer(source, channel);
+    const reply = await answer(source, channel, true);
     if (!reply.shareable) {
       await respond({
         response_type: "ephemeral",
@@ -192,12 +192,13 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     await respond({ delete_original: true });
   }
 
+  // "More" expands the answer in place: the private one through response_url, a public one by
+  // editing the bot's own message. Nothing is logged again.
   async function showWorking({ ack, body, respond, action, client }: ActionArgs) {
     await ack();
     const source = "value" in action ? (action.value ?? "") : "";
     const channel = body.channel?.id ?? "";
-    const reply = await answer(source, channel);
-    const message = render(reply, { working: true });
+    const reply = await answer(source, channel, true);
     const container = (
       body as { container?: { is_ephemeral?: boolean; thread_ts?: string; message_ts?: string } }
     ).container;
@@ -208,11 +209,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         ...render(reply, { working: true, source, offerPost: true }),
       });
     } else {
-      await client.chat.postMessage({
-        channel,
-        thread_ts: container.thread_ts ?? container.message_ts,
-        ...message,
-      });
+      await client.chat.update({ channel, ts: container.message_ts, ...render(reply, { working: true }) });
     }
   }
 

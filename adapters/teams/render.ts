@@ -1,10 +1,13 @@
 /**
- * The neutral reply as an Adaptive Card (version 1.5, the most Teams renders): the headline, how
- * it was read, the key facts, interpretation, problems, the cautions, and the working behind a
- * show-card action. Every block wraps, so it reads on a phone. fallbackText carries the plain text.
+ * The neutral reply as an Adaptive Card (version 1.5, the most Teams renders). The body is the
+ * first view a phone shows at once: the verdict, the key numbers and how it was read, why and the
+ * next step, the problems and the cautions that fit. "More" is an Action.ShowCard with everything
+ * else — every finding, the numbers with their formulas, the working, every caution with its
+ * source — so it opens without a round trip. Card text is Markdown in Teams: every character that
+ * carries meaning there is escaped. fallbackText carries the whole reply as plain text.
  */
 import type { Reply } from "../../bot/reply.js";
-import { renderText } from "../../bot/text.js";
+import { cautionsOf, fullText, typeset, whyLines } from "../../bot/text.js";
 
 export const CARD_VERSION = "1.5";
 
@@ -19,58 +22,86 @@ export interface AdaptiveCard {
   actions?: Element[];
 }
 
+/**
+ * Escapes what starts formatting in Teams' Markdown: \ * _ ~ ` [ ] anywhere; # > - + and "1." at
+ * the start of a line. Other characters (brackets, ±, ÷) need nothing.
+ */
+export function escapeMarkdown(text: string): string {
+  return text
+    .replace(/([\\`*_~[\]])/g, "\\$1")
+    .replace(/^(\s*)([#>])/gm, "$1\\$2")
+    .replace(/^(\s*)([-+])(\s)/gm, "$1\\$2$3")
+    .replace(/^(\s*\d+)\.(\s)/gm, "$1\\.$2");
+}
+
 const text = (value: string, extra: Element = {}): Element => ({
   type: "TextBlock",
-  text: value,
+  text: escapeMarkdown(typeset(value)),
   wrap: true,
   ...extra,
 });
 
-function workingBlocks(reply: Reply): Element[] {
-  return reply.working.map((w) => text(w, { size: "Small", fontType: "Monospace", spacing: "Small" }));
-}
-
-export function renderCard(reply: Reply, options: { working?: boolean } = {}): AdaptiveCard {
-  const showWorking = options.working ?? reply.showWorking;
-  const body: Element[] = [text(reply.headline, { weight: "Bolder", size: "Medium", style: "heading" })];
-  if (reply.readAs)
-    body.push(text(`Read as: ${reply.readAs}`, { isSubtle: true, size: "Small", spacing: "Small" }));
+/** Everything behind "More". */
+function moreBlocks(reply: Reply): Element[] {
+  const body: Element[] = [];
+  if (reply.readAs) body.push(text(`Read as: ${reply.readAs}`, { isSubtle: true, size: "Small" }));
   if (reply.facts.length > 0) {
     body.push({
       type: "FactSet",
       facts: reply.facts.map((f) => ({
-        title: f.label,
-        value: f.formula ? `${f.value} — ${f.formula}` : f.value,
+        title: escapeMarkdown(typeset(f.label)),
+        value: escapeMarkdown(typeset(f.formula ? `${f.value} — ${f.formula}` : f.value)),
       })),
     });
   }
   for (const line of reply.interpretation) body.push(text(`• ${line}`, { spacing: "Small" }));
-  for (const p of reply.problems) body.push(text(p.message, { color: "Attention", spacing: "Small" }));
   for (const n of reply.notes) body.push(text(`Note: ${n}`, { isSubtle: true, spacing: "Small" }));
-  if (showWorking && reply.working.length > 0) {
-    body.push(text("Working", { weight: "Bolder", separator: true }), ...workingBlocks(reply));
+  if (reply.working.length > 0) {
+    body.push(text("Working", { weight: "Bolder", separator: true }));
+    for (const w of reply.working)
+      body.push(text(w, { size: "Small", fontType: "Monospace", spacing: "Small" }));
   }
-  if (reply.cautions.length > 0) {
+  if (reply.cautions.length > 0)
     body.push({
       type: "Container",
       separator: true,
-      spacing: "Medium",
       items: reply.cautions.map((c) => text(c, { isSubtle: true, size: "Small", spacing: "Small" })),
     });
+  return body;
+}
+
+export function renderCard(reply: Reply, options: { working?: boolean } = {}): AdaptiveCard {
+  const expanded = options.working ?? reply.showWorking;
+  const body: Element[] = [text(reply.headline, { weight: "Bolder", size: "Medium", style: "heading" })];
+  if (reply.keyNumbers) body.push(text(reply.keyNumbers, { spacing: "Small" }));
+  if (reply.readShort)
+    body.push(text(`Read: ${reply.readShort}`, { isSubtle: true, size: "Small", spacing: "Small" }));
+  for (const line of whyLines(reply))
+    if (line !== reply.headline) body.push(text(`• ${line}`, { spacing: "Small" }));
+  for (const p of reply.problems) body.push(text(p.message, { color: "Attention", spacing: "Small" }));
+  const cautions = cautionsOf(reply);
+  if (cautions.length > 0) {
+    body.push({
+      type: "Container",
+      spacing: "Small",
+      items: cautions.map((c) => text(c, { isSubtle: true, size: "Small", spacing: "None" })),
+    });
   }
+  const more = moreBlocks(reply);
+  if (expanded) body.push(...more);
   const card: AdaptiveCard = {
     type: "AdaptiveCard",
     $schema: "http://adaptivecards.io/schemas/adaptive-card.json",
     version: CARD_VERSION,
-    fallbackText: renderText(reply, { working: showWorking }),
+    fallbackText: fullText(reply),
     body,
   };
-  if (!showWorking && reply.working.length > 0) {
+  if (!expanded && more.length > 0) {
     card.actions = [
       {
         type: "Action.ShowCard",
-        title: "Show working",
-        card: { type: "AdaptiveCard", version: CARD_VERSION, body: workingBlocks(reply) },
+        title: "More",
+        card: { type: "AdaptiveCard", version: CARD_VERSION, body: more },
       },
     ];
   }

@@ -949,40 +949,27 @@ function resolveUnit(analyte: Analyte, written: Unit | undefined, system: UnitSy
   if (analyte.conventionalDefault) return { unit: analyte.conventionalDefault, source: "convention" };
   const bySystem = system ? analyte.systemUnits?.[system] : undefined;
   if (bySystem) return { unit: bySystem, source: "channel" };
-  const choices =
-    analyte.id === "urea"
-      ? "mmol/L, or mg/dL — and if mg/dL, urea or BUN (urea nitrogen)"
-      : analyte.units
-          .filter((u) => u === "mmol/L" || u === "mg/dL" || u === "g/L" || u === "g/dL")
-          .join(" or ");
   return {
     problem: (value) => ({
       code: "unit.ambiguous",
-      message: `${capitalise(name)} ${value}: no unit, and it could be ${choices}.${fitsOnly(analyte, value)} Write the unit (e.g. ${ANALYTE_ALIASES[analyte.id][0]} ${value} ${suggestedUnit(analyte, value)}) or set the channel's units (units si, units conventional).`,
+      message: `${capitalise(name)} ${value}: no unit — ${unitAdvice(analyte, value)}`,
     }),
   };
 }
 
-/** The unit to suggest in an example: one that makes the value plausible, never an implausible one. */
-function suggestedUnit(analyte: Analyte, text: string): Unit {
+/** What to write: only units that would make the value plausible, never an implausible one. */
+function unitAdvice(analyte: Analyte, text: string): string {
   const value = Number(text);
-  const fits = analyte.units.filter((u) => {
+  const usual = analyte.units.filter((u) => u === "mmol/L" || u === "mg/dL" || u === "g/L" || u === "g/dL");
+  const fits = usual.filter((u) => {
     const c = value * toCanonicalFactor(analyte, u)!;
     return c >= analyte.plausible.min && c <= analyte.plausible.max;
   });
-  return fits[0] ?? analyte.systemUnits?.si ?? analyte.units[0]!;
-}
-
-/** " Only mg/dL would be plausible." — a hint, never a decision. */
-function fitsOnly(analyte: Analyte, text: string): string {
-  const value = Number(text);
-  if (!Number.isFinite(value)) return "";
-  const fits = analyte.units.filter((u) => {
-    const c = value * toCanonicalFactor(analyte, u)!;
-    return c >= analyte.plausible.min && c <= analyte.plausible.max;
-  });
-  if (fits.length === 0) return " No unit makes it plausible: check for a typo.";
-  return fits.length === 1 ? ` Only ${fits[0]} would be plausible.` : "";
+  if (fits.length === 0) return "no unit makes it plausible: check for a typo.";
+  const only = fits.length === 1 && usual.length > 1 ? " (the only plausible one)" : "";
+  if (analyte.id === "urea")
+    return `write mmol/L, or mg/dL with urea or BUN named (BUN is urea nitrogen)${fits.includes("mmol/L") ? "" : "; only mg/dL is plausible"}, or set the channel's units.`;
+  return `write ${fits.join(" or ")}${only}, or set the channel's units.`;
 }
 
 const MAX_PER_CODE = 3;
@@ -1006,8 +993,9 @@ function listOf(items: string[]): string {
   return items.length <= 1 ? (items[0] ?? "") : `${items.slice(0, -1).join(", ")} and ${items.at(-1)}`;
 }
 
+/** First letter up, for a Latin letter only ("β-hydroxybutyrate" stays as it is). */
 function capitalise(text: string): string {
-  return text.charAt(0).toUpperCase() + text.slice(1);
+  return /^[a-z]/.test(text) ? text.charAt(0).toUpperCase() + text.slice(1) : text;
 }
 
 function linesWord(lines: number[]): string {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { JsonReply } from "../../bot/json.js";
-import { CAUTIONS } from "../../core/cautions.js";
+import { CAUTIONS, SHORT_CAUTIONS } from "../../core/cautions.js";
 import { cleanEnv, run, solute } from "../helpers/spawn.js";
 
 describe("the one-shot command", { timeout: 60_000 }, () => {
@@ -58,8 +58,12 @@ describe("the one-shot command", { timeout: 60_000 }, () => {
 
   it("plain text without --json", async () => {
     const r = await solute(["Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"]);
-    expect(r.stdout).toMatch(/^Osmolality: calculated 300\.0 · effective 286\.0 · gap 10\.0 mOsm\/kg/);
-    expect(r.stdout).toContain(CAUTIONS.general);
+    // Verdict first: glucose 540 mg/dL is above 484 (Kost 1990 [C]); the gap 10.03 is ≥ 10 [P].
+    expect(r.stdout).toMatch(/^Critical high glucose 540 mg\/dL; toxic alcohol possible/);
+    expect(r.stdout.split("\n")[1]).toBe(
+      "calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg · corrected Na 135.0–138.6",
+    );
+    expect(r.stdout).toContain(SHORT_CAUTIONS.general);
   });
 
   it("never echoes an identifier, on stdout or stderr", async () => {
@@ -110,11 +114,11 @@ describe("the terminal chat", { timeout: 60_000 }, () => {
       env: cleanEnv(),
     });
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain("Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
+    expect(r.stdout).toContain("calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
     expect(r.stdout).toContain("Working:");
     expect(r.stdout).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
     expect(r.stdout).toContain("Units for this channel set to SI");
-    expect(r.stdout).toContain("Osmolality: calculated 315.0 · effective 310.0 mOsm/kg");
+    expect(r.stdout).toContain("calculated 315.0 · effective 310.0 mOsm/kg");
     expect(r.stderr).toBe("");
   });
 });
@@ -171,7 +175,7 @@ describe("a pasted block is one message", () => {
       "Test\tResult\tUnits\tRange\nSodium\t128\tmmol/L\t135-145\tL\nGlucose\t30.0\tmmol/L\t3.9-5.5\tH\nUrea\t14\tmmol/L\t2.5-7.8\tH\nOsmolality\t320\tmOsm/kg\t275-295\tH\n",
     );
     await done;
-    expect(out.match(/Read as:/g)).toHaveLength(1);
-    expect(out).toContain("Na 128 mmol/L, glucose 30 mmol/L, urea 14 mmol/L, measured osm 320 mOsm/kg");
+    expect(out.match(/Read: /g)).toHaveLength(1);
+    expect(out).toContain("Read: Na 128, glucose 30, urea 14, osm 320");
   });
 });

@@ -5,12 +5,14 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { oneShot } from "../../adapters/console/oneshot.js";
 import { createSlackAdapter, type SlackAdapter } from "../../adapters/slack/app.js";
+import { render as renderSlack } from "../../adapters/slack/render.js";
 import { MemoryStore } from "../../adapters/store/memory.js";
 import { createTeamsAdapter } from "../../adapters/teams/app.js";
 import { loadConfig } from "../../bot/config.js";
 import { Conversation } from "../../bot/conversation.js";
 import type { Reply } from "../../bot/reply.js";
 import { type HttpServer, startServer } from "../../bot/server.js";
+import { cautionsOf, typeset } from "../../bot/text.js";
 import { fixture } from "../helpers/fixtures.js";
 import { type FakeSlack, fakeSlack, form, postSigned } from "../helpers/slack.js";
 import { type FakeConnector, fakeConnector, replay } from "../helpers/teams.js";
@@ -68,10 +70,10 @@ async function neutral(text: string): Promise<Reply> {
   return new Conversation(new MemoryStore(), config).handle({ text, channel: "x", platform: "console" });
 }
 
-async function viaTerminal(text: string): Promise<string> {
+async function viaTerminal(text: string, working = false): Promise<string> {
   let out = "";
   await oneShot(
-    [text],
+    working ? ["--working", text] : [text],
     (s) => {
       out += s;
     },
@@ -81,6 +83,10 @@ async function viaTerminal(text: string): Promise<string> {
   return out;
 }
 
+/** What a person sees in Slack's blocks: their texts, unescaped. */
+const slackText = (blocks: unknown) =>
+  JSON.stringify(blocks).replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+
 async function viaSlack(text: string, n: number): Promise<string> {
   const base = fixture("slash-commands-slack.json").slashCommandWithArgs;
   const res = await postSigned(
@@ -89,12 +95,13 @@ async function viaSlack(text: string, n: number): Promise<string> {
     form({ ...base, command: "/solute", text, response_url: `${api.url}/respond/${n}` }),
     "application/x-www-form-urlencoded",
   );
-  const call = { body: JSON.parse(res.text) as { blocks: unknown } };
-  // What a person sees: the blocks' texts, unescaped.
-  return JSON.stringify(call.body.blocks).replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+  return slackText((JSON.parse(res.text) as { blocks: unknown }).blocks);
 }
 
-async function viaTeams(text: string): Promise<string> {
+/** What a person sees in Teams: the card's texts with their Markdown escapes removed. */
+const teamsText = (card: unknown) => JSON.stringify(card).replace(/\\\\(.)/g, "$1");
+
+async function viaTeams(text: string): Promise<{ body: string; all: string }> {
   const before = connector.sent.length;
   await fetch(`http://127.0.0.1:${server.port}/api/messages`, {
     method: "POST",
@@ -102,19 +109,44 @@ async function viaTeams(text: string): Promise<string> {
     body: JSON.stringify(replay(fixture("dm-teams.json").dmMessage, text, connector.serviceUrl)),
   });
   const sent = await connector.waitFor(before + 1);
-  const card = (sent[before]!.activity.attachments as { content: { body: unknown } }[])[0]!.content;
-  return JSON.stringify(card.body);
+  const card = (sent[before]!.activity.attachments as { content: { body: unknown; actions?: unknown } }[])[0]!
+    .content;
+  return { body: teamsText(card.body), all: teamsText({ body: card.body, actions: card.actions }) };
 }
 
 const json = (s: string) => JSON.stringify(s).slice(1, -1);
+const has = (rendered: string, piece: string) =>
+  rendered.includes(piece) ||
+  rendered.includes(json(piece)) ||
+  rendered.includes(typeset(piece)) ||
+  rendered.includes(json(typeset(piece)));
 
 describe.each(REQUESTS.map((r, i) => [r, i] as const))("contract: %s", (text, i) => {
-  it("the terminal, Slack and Teams carry the same facts, problems and cautions", async () => {
+  it("the first view on the terminal, Slack and Teams carries the verdict, numbers, problems and fitting cautions", async () => {
     const reply = await neutral(text);
-    const renderings = {
+    const first = {
       terminal: await viaTerminal(text),
       slack: await viaSlack(text, i),
-      teams: await viaTeams(text),
+      teams: (await viaTeams(text)).body,
+    };
+    const must = [
+      reply.headline,
+      reply.keyNumbers,
+      ...reply.problems.map((p) => p.message),
+      ...cautionsOf(reply),
+    ].filter((x): x is string => Boolean(x));
+    for (const [name, rendered] of Object.entries(first)) {
+      for (const piece of must) expect(has(rendered, piece), `${name} lacks: ${piece}`).toBe(true);
+      expect(rendered, name).not.toContain("Ashdown");
+    }
+  });
+
+  it("behind the tap, every surface carries every fact, finding and caution", async () => {
+    const reply = await neutral(text);
+    const all = {
+      terminal: await viaTerminal(text, true),
+      slack: slackText(renderSlack(reply, { working: true }).blocks),
+      teams: (await viaTeams(text)).all,
     };
     const must = [
       reply.headline,
@@ -125,12 +157,8 @@ describe.each(REQUESTS.map((r, i) => [r, i] as const))("contract: %s", (text, i)
       ...reply.interpretation,
     ];
     expect(must.length).toBeGreaterThan(1);
-    for (const [name, rendered] of Object.entries(renderings)) {
-      for (const piece of must) {
-        const found = rendered.includes(piece) || rendered.includes(json(piece));
-        expect(found, `${name} lacks: ${piece}`).toBe(true);
-      }
-      expect(rendered, name).not.toContain("Ashdown");
+    for (const [name, rendered] of Object.entries(all)) {
+      for (const piece of must) expect(has(rendered, piece), `${name} lacks: ${piece}`).toBe(true);
     }
   });
 });
@@ -144,8 +172,8 @@ describe("a pasted report on every surface", () => {
     expect(reply.data!.reading!.inputs.urineOsmolality).toBe(480);
     expect(reply.readAs).toMatch(/urine Na 71 mmol\/L/);
     expect(reply.notes.join()).toMatch(/As printed: The calculated osmolality 281/);
-    for (const rendered of [await viaTerminal(text), await viaSlack(text, 99), await viaTeams(text)]) {
-      expect(rendered).toContain("urine Na 71 mmol/L");
+    for (const rendered of [await viaTerminal(text), await viaSlack(text, 99), (await viaTeams(text)).body]) {
+      expect(rendered).toContain("urine Na 71");
     }
   });
 });

@@ -35,8 +35,9 @@ describe("calculating", () => {
     expect(r.shareable).toBe(true);
     expect(r.showWorking).toBe(false);
     const text = renderText(r);
-    expect(text).toContain("Read as:");
-    expect(text).toContain(CAUTIONS.general);
+    expect(text).toContain("Read: Na 128, glucose 540 mg/dL, urea 14, osm 310");
+    expect(renderText(r, { working: true })).toContain("Read as:");
+    expect(renderText(r, { working: true })).toContain(CAUTIONS.general);
   });
 
   it("shows the working when asked", async () => {

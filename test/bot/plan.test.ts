@@ -157,7 +157,7 @@ describe("the plan command", () => {
     await ask("bed 12 Na 119");
     const r = await ask("plan bed 12 Na 119 TBW 30 L 1 L 3% NaCl");
     expect(r.interpretation.join(" ")).toMatch(/Logged for bed 12: \+5\.0 mmol\/L so far in hours 0–24/);
-    expect(r.interpretation[0]).toMatch(/\+17\.7 mmol\/L \(\+5\.0 already \+ \+12\.7 planned\)/);
+    expect(r.interpretation[0]).toMatch(/\+17\.7 mmol\/L \(\+5\.0 already and \+12\.7 planned\)/);
     expect(r.data!.trend!.points.map((p) => p.sodium)).toEqual([114, 119]);
   });
 

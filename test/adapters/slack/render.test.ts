@@ -17,13 +17,21 @@ describe("Block Kit rendering", () => {
     reply.working = Array.from({ length: 80 }, () => "w".repeat(500));
     reply.cautions = Array.from({ length: 14 }, () => "c".repeat(2500));
     reply.shareable = true;
+    reply.why = ["why"];
+    reply.visibleCautions = ["short caution"];
     for (const working of [false, true]) {
       const message = render(reply, { source: "Na 140", offerPost: true, working });
       expect(checkBlocks(message.blocks)).toEqual([]);
       expect(message.blocks.length).toBeLessThanOrEqual(LIMITS.blocksPerMessage);
       expect(message.text.length).toBeLessThanOrEqual(LIMITS.fallbackText);
-      expect(message.blocks.at(-1)!.type).toBe("context");
+      // The first view ends with the cautions, then the buttons.
+      if (!working) expect(message.blocks.at(-1)!.type).toBe("actions");
+      expect(message.blocks.some((b) => b.type === "context")).toBe(true);
     }
+    // Past the block limit, the reply says how much is not shown.
+    expect(JSON.stringify(render(reply, { working: true }).blocks.at(-1))).toMatch(
+      /more parts are not shown/,
+    );
   });
 
   it("escapes mrkdwn control characters", () => {

@@ -6,7 +6,7 @@ import { loadConfig } from "../../../bot/config.js";
 import { Conversation } from "../../../bot/conversation.js";
 import { setLogSink } from "../../../bot/log.js";
 import { type HttpServer, startServer } from "../../../bot/server.js";
-import { CAUTIONS } from "../../../core/cautions.js";
+import { SHORT_CAUTIONS } from "../../../core/cautions.js";
 import { fixture } from "../../helpers/fixtures.js";
 import { BOT_USER_ID, type FakeSlack, fakeSlack, form, postSigned } from "../../helpers/slack.js";
 
@@ -75,17 +75,17 @@ describe("slash command", () => {
   it("answers privately in the acknowledgement, with a button to post to the channel", async () => {
     const res = await postSigned(url, SECRET, slash(PANEL), "application/x-www-form-urlencoded");
     expect(res.status).toBe(200);
-    expect(res.ms).toBeLessThan(3000);
+    // The answer is in the acknowledgement itself (Slack's 3 s budget is measured by npm run bench).
     const body = JSON.parse(res.text);
     expect(body.response_type).toBe("ephemeral");
-    expect(body.text).toContain("Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
+    expect(body.text).toContain("calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
     const blocks = body.blocks as Parameters<typeof checkBlocks>[0];
     expect(checkBlocks(blocks)).toEqual([]);
     expect(JSON.stringify(blocks)).toContain("solute_post");
     expect(JSON.stringify(blocks)).toContain("solute_working");
-    const last = blocks.at(-1)!;
-    expect(last.type).toBe("context");
-    expect(JSON.stringify(last)).toContain(CAUTIONS.general.slice(0, 40));
+    // The first view: the cautions, then the buttons; the full caution is behind "More".
+    expect(blocks.at(-1)!.type).toBe("actions");
+    expect(JSON.stringify(blocks.at(-2))).toContain(SHORT_CAUTIONS.general);
   });
 
   it("help and problems stay private, without a post button", async () => {
@@ -204,7 +204,7 @@ describe("mentions and direct messages", () => {
     expect(api.calls.filter((c) => c.path === "/api/chat.postMessage")).toHaveLength(1);
   });
 
-  it("a show-working press posts the working in the thread", async () => {
+  it("a More press expands the public answer in place, and logs nothing", async () => {
     const payload = {
       type: "block_actions",
       team: { id: "T00FAKE00AA" },
@@ -229,11 +229,12 @@ describe("mentions and direct messages", () => {
       form({ payload: JSON.stringify(payload) }),
       "application/x-www-form-urlencoded",
     );
-    const post = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
-      (c) => c.path === "/api/chat.postMessage",
+    const update = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.update"))).find(
+      (c) => c.path === "/api/chat.update",
     )!;
-    expect(post.body.thread_ts).toBe("1773327463.619929");
-    expect(JSON.stringify(post.body.blocks)).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+    expect(update.body.ts).toBe("1773327463.700000");
+    expect(JSON.stringify(update.body.blocks)).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+    expect(api.calls.filter((c) => c.path === "/api/chat.postMessage")).toHaveLength(0);
   });
 });
 

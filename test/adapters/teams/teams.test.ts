@@ -1,13 +1,13 @@
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { MemoryStore } from "../../../adapters/store/memory.js";
 import { createTeamsAdapter } from "../../../adapters/teams/app.js";
-import { type AdaptiveCard, renderCard } from "../../../adapters/teams/render.js";
+import { type AdaptiveCard, escapeMarkdown, renderCard } from "../../../adapters/teams/render.js";
 import { loadConfig } from "../../../bot/config.js";
 import { Conversation } from "../../../bot/conversation.js";
 import { setLogSink } from "../../../bot/log.js";
 import { emptyReply } from "../../../bot/reply.js";
 import { type HttpServer, startServer } from "../../../bot/server.js";
-import { CAUTIONS } from "../../../core/cautions.js";
+import { CAUTIONS, SHORT_CAUTIONS } from "../../../core/cautions.js";
 import { cardProblems } from "../../helpers/cards.js";
 import { fixture } from "../../helpers/fixtures.js";
 import { type FakeConnector, fakeConnector, replay } from "../../helpers/teams.js";
@@ -67,11 +67,11 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
     expect(card.content.version).toBe("1.5");
     expect(cardProblems(card.content)).toEqual([]);
     expect(JSON.stringify(card.content.body)).toContain(
-      "Osmolality: calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg",
+      "calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg",
     );
     expect(card.content.fallbackText).toContain("Read as: Na 128 mmol/L");
     expect(card.content.fallbackText).not.toContain("not understood");
-    expect(JSON.stringify(card.content.actions)).toContain("Show working");
+    expect(JSON.stringify(card.content.actions)).toContain('"title":"More"');
     expect(JSON.stringify(card.content.actions)).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
   });
 
@@ -189,11 +189,21 @@ describe("the Adaptive Card", () => {
     }
   });
 
-  it("ends with the cautions", () => {
+  it("ends with the cautions: the short one up front, the full one behind More", () => {
     const reply = emptyReply("result", "h");
     reply.cautions = [CAUTIONS.general];
     const card = renderCard(reply);
-    expect(JSON.stringify(card.body.at(-1))).toContain(CAUTIONS.general);
+    expect(JSON.stringify(card.body.at(-1))).toContain(SHORT_CAUTIONS.general);
+    expect(JSON.stringify(card.actions)).toContain(CAUTIONS.general);
+  });
+
+  it("escapes every character Teams Markdown gives meaning to", () => {
+    const reply = emptyReply("check", "2*131 + 22*1 + 9 = 293 _x_ ~y~ `z` [a](b) # h > q | t \\ e");
+    const shown = (renderCard(reply).body[0] as { text: string }).text;
+    expect(shown).toBe("2\\*131 + 22\\*1 + 9 = 293 \\_x\\_ \\~y\\~ \\`z\\` \\[a\\](b) # h > q | t \\\\ e");
+    expect(escapeMarkdown("- item\n1. first\n# not a heading\n> not a quote")).toBe(
+      "\\- item\n1\\. first\n\\# not a heading\n\\> not a quote",
+    );
   });
 
   it("the card checker catches what it should", () => {

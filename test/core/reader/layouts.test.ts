@@ -181,8 +181,8 @@ describe("pasted layouts", () => {
 
   it("suggests only a unit that would make the value plausible", () => {
     const m = readMessage("glucose 540").problems[0]!.message;
-    expect(m).toMatch(/glucose 540 mg\/dL/);
-    expect(m).not.toMatch(/540 mmol\/L\)/);
+    expect(m).toMatch(/write mg\/dL \(the only plausible one\)/);
+    expect(m).not.toMatch(/mmol\/L/);
   });
 
   it("tests that are not used are listed once, not called not understood", () => {
