@@ -108,7 +108,8 @@ export class Conversation {
     const showWorking = working.test(text);
     const cleaned = text.replace(/(^|\s)(show working|--working|working|more)(?=\s|$)/gi, " ").trim();
     const first = cleaned.split(/\s+/)[0] ?? "";
-    const handler = this.commands.get(first.toLowerCase());
+    // An empty message (a bare /solute) is a request for help.
+    const handler = cleaned === "" ? this.commands.get("help") : this.commands.get(first.toLowerCase());
     const ctx: Context = {
       request,
       channel,
@@ -224,6 +225,8 @@ export class Conversation {
       `Units for this channel set to ${describe(choice === "none" ? undefined : choice)}.`,
     );
     reply.shareable = true;
+    // Everyone in the channel reads by this setting: the change is announced there.
+    reply.announce = true;
     return reply;
   }
 

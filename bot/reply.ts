@@ -56,6 +56,10 @@ export interface Reply {
   cautions: string[];
   /** Whether the reply may be posted for the whole channel (help and problems stay private). */
   shareable: boolean;
+  /** A channel-wide change (units set, the log cleared): told to the whole channel, naming no one. */
+  announce?: boolean;
+  /** A destructive command that needs a confirmation first (forget). */
+  confirm?: boolean;
   /** Whether the working should be shown inline (the user asked for it). */
   showWorking: boolean;
   /** The machine-readable result, for the one-shot command's JSON and the shift log. */

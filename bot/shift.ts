@@ -389,12 +389,27 @@ export async function forget(ctx: Context, bot: Conversation): Promise<Reply> {
       reply.shareable = true;
       return reply;
     }
+    // The whole log goes only when confirmed: "forget all", or the button's confirm dialog.
+    if (!/^\s*(all|everything|confirm|yes)\b/i.test(ctx.rest)) {
+      const records = await bot.store.listRecords(ctx.channel, bot.clock());
+      const cases = new Set(records.map((r) => r.tag)).size;
+      const reply = emptyReply(
+        "forget",
+        `Clear this channel's whole shift log? ${records.length} record${records.length === 1 ? "" : "s"} of ${cases} case${cases === 1 ? "" : "s"}.`,
+      );
+      reply.why = [
+        "Type forget all to clear it (the channel is told, without naming you), or forget bed 12 to remove one case.",
+      ];
+      reply.confirm = true;
+      return reply;
+    }
     const n = await bot.store.forget(ctx.channel);
     const reply = emptyReply(
       "forget",
-      `Shift log cleared: ${n} record${n === 1 ? "" : "s"} removed from this channel's log.`,
+      `This channel's shift log was cleared: ${n} record${n === 1 ? "" : "s"} removed.`,
     );
     reply.shareable = true;
+    reply.announce = true;
     return reply;
   } catch (error) {
     log("warn", "store.forget-failed", { code: errorCode(error) });

@@ -46,6 +46,13 @@ export interface Store {
   forget(channel: string): Promise<number>;
   /** Removes one case's records (a bed tag is reused when a patient leaves); returns how many went. */
   forgetTag(channel: string, tag: string): Promise<number>;
+  /**
+   * Keeps a reply Solute computed (its rendered fields: numbers, findings, Solute's own texts —
+   * never the message it answered) under a random id, for the buttons that re-render it.
+   */
+  saveReply(id: string, reply: string, ttlMs: number): Promise<void>;
+  /** The reply kept under `id`, or undefined once it has expired. */
+  loadReply(id: string): Promise<string | undefined>;
   /** True the first time `key` is seen within `ttlMs` — de-duplicates retried deliveries. */
   firstSeen(key: string, ttlMs: number): Promise<boolean>;
   /** Counts a hit on `key` in a fixed window; true while the count is within `limit`. */

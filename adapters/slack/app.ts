@@ -10,16 +10,17 @@
  * - HTTP: signatures checked by Bolt; timestamps more than 5 minutes away in either direction are
  *   refused here (Bolt refuses only old ones). Socket Mode: no inbound endpoint needed.
  */
+import { createHmac, randomBytes } from "node:crypto";
 import type { IncomingMessage, ServerResponse } from "node:http";
 import { App, HTTPReceiver, LogLevel, SocketModeReceiver } from "@slack/bolt";
 import type { SlackConfig } from "../../bot/config.js";
 import type { Conversation } from "../../bot/conversation.js";
 import { track } from "../../bot/inflight.js";
 import { errorCode, log } from "../../bot/log.js";
-import { channelKey } from "../../bot/privacy.js";
+import { channelKey, openReply, sealReply } from "../../bot/privacy.js";
 import type { Reply } from "../../bot/reply.js";
 import { cleanText, slashText } from "./events.js";
-import { ACTIONS, render } from "./render.js";
+import { ACTIONS, homeBlocks, render, viewOf, welcomeText } from "./render.js";
 
 /** Slack's own limit on request age, applied in both directions. */
 export const MAX_CLOCK_SKEW_S = 300;
@@ -34,6 +35,16 @@ function delay(ms: number): { promise: Promise<undefined>; cancel(): void } {
   });
   return { promise, cancel: () => clearTimeout(handle) };
 }
+/** How long a reply is kept for its buttons (More, Post to channel). */
+export const REPLY_MS = 24 * 60 * 60 * 1000;
+/** The message shortcut's callback ID (both manifests). */
+export const SHORTCUT = "solute_check";
+const EXPIRED =
+  "That answer has expired (answers are kept for 24 h, without the message they answered): send the message again.";
+const QUIET_HINT =
+  "Solute reads lab values: mention me with them, like @Solute Na 128 glu 540 mg/dL urea 14 mmol/L osm 310 — or type /solute help.";
+/** How long a signed request is remembered, to answer a replay once: Slack's 5 minutes and a margin. */
+const REPLAY_MS = 6 * 60 * 1000;
 /** How long an event ID is remembered for de-duplication. */
 const DEDUP_MS = 60 * 60 * 1000;
 
@@ -121,14 +132,47 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
   const answer = (text: string, channel: string, replay = false): Promise<Reply> =>
     bot.handle({ text, channel, platform: "slack", ...(replay && { replay }) });
 
+  // Buttons carry the id of the reply Solute already computed (kept REPLY_MS, never the message
+  // text): a click re-renders it and logs nothing.
+  const keep = async (reply: Reply): Promise<string | undefined> => {
+    const id = `r1.${randomBytes(12).toString("base64url")}`;
+    try {
+      await bot.store.saveReply(id, sealReply(bot.config.secret, JSON.stringify(viewOf(reply))), REPLY_MS);
+      return id;
+    } catch (error) {
+      log("warn", "slack.reply-unsaved", { platform: "slack", code: errorCode(error) });
+      return undefined;
+    }
+  };
+  const recall = async (value: string | undefined): Promise<Reply | undefined> => {
+    if (!value?.startsWith("r1.")) return undefined;
+    try {
+      const sealed = await bot.store.loadReply(value);
+      const raw = sealed && openReply(bot.config.secret, sealed);
+      return raw ? (JSON.parse(raw) as Reply) : undefined;
+    } catch (error) {
+      log("warn", "slack.reply-unavailable", { platform: "slack", code: errorCode(error) });
+      return undefined;
+    }
+  };
+  const message = async (reply: Reply, options: { offerPost?: boolean; working?: boolean } = {}) =>
+    render(reply, { ...options, ...(await keepIfButtons(reply, options)) });
+  const keepIfButtons = async (reply: Reply, options: { working?: boolean }) => {
+    const wantsButtons =
+      reply.kind === "forget" || (!options.working && reply.kind !== "help") || reply.shareable;
+    const source = wantsButtons ? await keep(reply) : undefined;
+    return source ? { source } : {};
+  };
+
   app.command(config.command, async ({ command, ack, respond }) => {
     // The answer usually takes well under a millisecond: then it goes back in the acknowledgement
     // itself, saving a round trip. If it is not ready in time (a slow store), the command is
     // acknowledged first and answered through response_url — always inside Slack's 3 seconds.
     const text = slashText(command.text);
-    const answering = answer(text, command.channel_id ?? "").then((reply) => ({
-      response_type: "ephemeral" as const,
-      ...render(reply, { source: text, offerPost: true }),
+    const answering = answer(text, command.channel_id ?? "").then(async (reply) => ({
+      // A channel-wide change (units, a cleared log) is announced to the channel, naming no one.
+      response_type: reply.announce ? ("in_channel" as const) : ("ephemeral" as const),
+      ...(await message(reply, { offerPost: !reply.announce })),
     }));
     const timer = delay(ACK_WITH_ANSWER_MS);
     const quick = await Promise.race([answering, timer.promise]);
@@ -141,45 +185,100 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     await respond(await answering);
   });
 
+  /** A reply that could not be posted: the person who asked gets a private note saying so. */
+  const cannotPost = async (
+    client: ActionClient,
+    channel: string,
+    user: string | undefined,
+    error: unknown,
+    threadTs?: string,
+  ) => {
+    const code = (error as { data?: { error?: string } }).data?.error ?? errorCode(error);
+    log("warn", "slack.post-failed", { platform: "slack", code });
+    if (!user) return;
+    const why =
+      code === "not_in_channel" || code === "channel_not_found"
+        ? "I am not in this channel: invite me with /invite @Solute, or use the slash command, whose answer comes privately."
+        : "Slack did not take my answer just now: please send it again in a moment.";
+    try {
+      await client.chat.postEphemeral({
+        channel,
+        user,
+        text: `Solute could not post its answer. ${why}`,
+        ...(threadTs && { thread_ts: threadTs }),
+      });
+    } catch (second) {
+      log("warn", "slack.note-failed", { platform: "slack", code: errorCode(second) });
+    }
+  };
+
   app.event("app_mention", async ({ event, client }) => {
     if (!event.channel) return;
     const text = cleanText(event.text ?? "");
     const reply = await answer(text, event.channel);
-    await client.chat.postMessage({
-      channel: event.channel,
-      thread_ts: event.thread_ts ?? event.ts,
-      ...render(reply, { source: text }),
-    });
-  });
-
-  app.message(async ({ message, client }) => {
-    // Direct messages only; the bot's own and other bots' messages and edits are left alone.
+    const thread = event.thread_ts ?? event.ts;
+    // A mention without lab values ("@Solute thanks") gets a short private hint, not a public reply.
     if (
-      message.channel_type !== "im" ||
-      message.subtype !== undefined ||
-      "bot_id" in message ||
-      !message.channel
-    )
+      reply.kind === "nothing" &&
+      reply.problems.every((p) => p.code === "input.empty" || p.code === "word.unknown")
+    ) {
+      try {
+        if (event.user)
+          await client.chat.postEphemeral({
+            channel: event.channel,
+            user: event.user,
+            thread_ts: thread,
+            text: QUIET_HINT,
+          });
+      } catch (error) {
+        log("warn", "slack.note-failed", { platform: "slack", code: errorCode(error) });
+      }
       return;
-    const text = cleanText(("text" in message ? message.text : "") ?? "");
-    const reply = await answer(text, message.channel);
-    await client.chat.postMessage({ channel: message.channel, ...render(reply, { source: text }) });
+    }
+    try {
+      await client.chat.postMessage({ channel: event.channel, thread_ts: thread, ...(await message(reply)) });
+    } catch (error) {
+      await cannotPost(client, event.channel, event.user, error, thread);
+    }
   });
 
-  // One listener for both buttons: Bolt runs every listener's middleware on every request, so
+  app.message(async ({ message: m, client }) => {
+    // Direct messages only; the bot's own and other bots' messages and edits are left alone.
+    if (m.channel_type !== "im" || m.subtype !== undefined || "bot_id" in m || !m.channel) return;
+    const text = cleanText(("text" in m ? m.text : "") ?? "");
+    const reply = await answer(text, m.channel);
+    // A message inside a DM thread is answered in that thread.
+    const thread = "thread_ts" in m && typeof m.thread_ts === "string" ? m.thread_ts : undefined;
+    try {
+      await client.chat.postMessage({
+        channel: m.channel,
+        ...(thread && { thread_ts: thread }),
+        ...(await message(reply)),
+      });
+    } catch (error) {
+      await cannotPost(client, m.channel, "user" in m ? (m.user as string) : undefined, error, thread);
+    }
+  });
+
+  // One listener for every button: Bolt runs every listener's middleware on every request, so
   // fewer listeners is less work per message.
-  app.action(/^solute_(post|working)$/, async (args) => {
+  app.action(/^solute_(post|working|forget)$/, async (args) => {
+    await args.ack();
     const id = (args.action as { action_id?: string }).action_id;
-    await (id === ACTIONS.post ? postToChannel(args) : showWorking(args));
+    const value = "value" in args.action ? args.action.value : undefined;
+    if (id === ACTIONS.forget) return forgetConfirmed(args);
+    const reply = await recall(value);
+    if (!reply) {
+      await args.respond({ response_type: "ephemeral", replace_original: false, text: EXPIRED });
+      return;
+    }
+    await (id === ACTIONS.post ? postToChannel(args, reply) : showMore(args, reply));
   });
 
   type ActionArgs = Parameters<Parameters<typeof app.action>[1]>[0];
+  type ActionClient = ActionArgs["client"];
 
-  async function postToChannel({ ack, body, respond, action }: ActionArgs) {
-    await ack();
-    const source = "value" in action ? (action.value ?? "") : "";
-    const channel = body.channel?.id ?? "";
-    const reply = await answer(source, channel, true);
+  async function postToChannel({ body, respond, client }: ActionArgs, reply: Reply) {
     if (!reply.shareable) {
       await respond({
         response_type: "ephemeral",
@@ -188,30 +287,93 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
       });
       return;
     }
-    await respond({ response_type: "in_channel", replace_original: false, ...render(reply, { source }) });
-    await respond({ delete_original: true });
+    const channel = body.channel?.id ?? "";
+    try {
+      await client.chat.postMessage({ channel, ...(await message(reply)) });
+      await respond({ delete_original: true });
+    } catch (error) {
+      // The bot may not be in the channel (an answer shared from a DM): say so, privately.
+      const code = (error as { data?: { error?: string } }).data?.error ?? errorCode(error);
+      log("warn", "slack.post-failed", { platform: "slack", code });
+      await respond({
+        response_type: "ephemeral",
+        replace_original: false,
+        text:
+          code === "not_in_channel" || code === "channel_not_found"
+            ? "Solute could not post here: it is not in this channel. Invite it with /invite @Solute and press the button again."
+            : "Solute could not post its answer just now: please press the button again in a moment.",
+      });
+    }
   }
 
   // "More" expands the answer in place: the private one through response_url, a public one by
   // editing the bot's own message. Nothing is logged again.
-  async function showWorking({ ack, body, respond, action, client }: ActionArgs) {
-    await ack();
-    const source = "value" in action ? (action.value ?? "") : "";
+  async function showMore({ body, respond, client }: ActionArgs, reply: Reply) {
     const channel = body.channel?.id ?? "";
-    const reply = await answer(source, channel, true);
-    const container = (
-      body as { container?: { is_ephemeral?: boolean; thread_ts?: string; message_ts?: string } }
-    ).container;
+    const container = (body as { container?: { is_ephemeral?: boolean; message_ts?: string } }).container;
+    const expanded = { ...reply, showWorking: true };
     if (container?.is_ephemeral || !container?.message_ts) {
       await respond({
         response_type: "ephemeral",
         replace_original: true,
-        ...render(reply, { working: true, source, offerPost: true }),
+        ...(await message(expanded, { offerPost: true })),
       });
-    } else {
-      await client.chat.update({ channel, ts: container.message_ts, ...render(reply, { working: true }) });
+      return;
+    }
+    try {
+      await client.chat.update({ channel, ts: container.message_ts, ...render(expanded, { working: true }) });
+    } catch (error) {
+      await cannotPost(client, channel, body.user?.id, error);
     }
   }
+
+  // The whole log is cleared only after the confirm dialog; then the channel is told, naming no one.
+  async function forgetConfirmed({ body, respond, client }: ActionArgs) {
+    const channel = body.channel?.id ?? "";
+    const reply = await answer("forget all", channel);
+    await respond({ response_type: "ephemeral", replace_original: true, ...render(reply) });
+    if (reply.kind === "forget" && reply.announce) {
+      try {
+        await client.chat.postMessage({ channel, text: reply.headline });
+      } catch (error) {
+        await cannotPost(client, channel, body.user?.id, error);
+      }
+    }
+  }
+
+  // For the senior: "Check with Solute" on a message reads it where it stands and answers
+  // privately to the person who used it.
+  app.shortcut(SHORTCUT, async ({ shortcut, ack, respond }) => {
+    await ack();
+    const m = (shortcut as { message?: { text?: string } }).message;
+    const channel = (shortcut as { channel?: { id?: string } }).channel?.id ?? "";
+    const text = cleanText(m?.text ?? "");
+    const checkable = /\b(calc|calculated|gap|corrected|eff|effective|anion gap|ag)\b|=/i.test(text);
+    const reply = await answer(checkable && !/^check\b/i.test(text) ? `check ${text}` : text, channel, true);
+    await respond({ response_type: "ephemeral", ...(await message(reply)) });
+  });
+
+  app.event("app_home_opened", async ({ event, client }) => {
+    if (event.tab !== "home") return;
+    try {
+      await client.views.publish({
+        user_id: event.user,
+        view: { type: "home", blocks: homeBlocks(config.command) },
+      });
+    } catch (error) {
+      log("warn", "slack.home-failed", { platform: "slack", code: errorCode(error) });
+    }
+  });
+
+  // A short welcome when the bot itself joins a channel.
+  app.event("member_joined_channel", async ({ event, client, context }) => {
+    if (event.user !== context.botUserId) return;
+    try {
+      await client.chat.postMessage({ channel: event.channel, text: welcomeText(config.command) });
+    } catch (error) {
+      log("warn", "slack.welcome-failed", { platform: "slack", code: errorCode(error) });
+    }
+  });
 
   app.error(async (error) => {
     log("error", "slack.listener-failed", {
@@ -248,7 +410,29 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         res.writeHead(401).end();
         return;
       }
-      listener(req, res);
+      // A signed request delivered again inside the window (a replay) is answered once, on every
+      // replica: its signature is remembered (as an HMAC) for the window. A forged one fails in Bolt.
+      const signature = req.headers["x-slack-signature"];
+      if (typeof signature !== "string" || req.headers["x-slack-retry-num"] !== undefined) {
+        listener(req, res);
+        return;
+      }
+      const key = `slack:signed:${createHmac("sha256", bot.config.secret).update(`${ts}:${signature}`).digest("base64url").slice(0, 32)}`;
+      bot.store.firstSeen(key, REPLAY_MS).then(
+        (first) => {
+          if (first) listener(req, res);
+          else {
+            log("info", "slack.replay-dropped", { platform: "slack" });
+            req.resume();
+            res.writeHead(200).end();
+          }
+        },
+        (error) => {
+          // Without the store a replay cannot be told from a first delivery: answer it.
+          log("warn", "slack.dedup-unavailable", { platform: "slack", code: errorCode(error) });
+          listener(req, res);
+        },
+      );
     },
     start: async () => {},
     stop: async () => {},

@@ -31,6 +31,7 @@ export type Block =
         action_id: string;
         value?: string;
         style?: "primary" | "danger";
+        confirm?: { title: Text; text: Text; confirm: Text; deny: Text };
       }[];
     };
 

@@ -11,7 +11,44 @@ import type { Reply } from "../../bot/reply.js";
 import { cautionsOf, renderText, typeset, whyLines } from "../../bot/text.js";
 import { type Block, LIMITS } from "./limits.js";
 
-export const ACTIONS = { post: "solute_post", working: "solute_working" } as const;
+export const ACTIONS = { post: "solute_post", working: "solute_working", forget: "solute_forget" } as const;
+
+/** The reply's rendered fields, as kept for its buttons: no `data`, so no reading of the message. */
+export function viewOf(reply: Reply): Reply {
+  const { data: _data, ...view } = reply;
+  return view;
+}
+
+/** The App Home tab: how to use Solute, privacy in one paragraph, settings are per channel. */
+export function homeBlocks(command: string): Block[] {
+  const p = (text: string): Block => ({ type: "section", text: { type: "mrkdwn", text } });
+  return [
+    { type: "header", text: { type: "plain_text", text: "Solute" } },
+    p(
+      `Type lab values the way you write them — in a channel with ${command} or by mentioning @Solute, or here in a direct message: *Na 128 glu 540 mg/dL urea 14 mmol/L osm 310*. Paste a panel from the results viewer as it is. The answer leads with what matters most; *More* shows every finding, the working and the sources.`,
+    ),
+    p(
+      `*${command} check* … checks a colleague's result · *${command} plan* … what a litre of a fluid does to the sodium · *${command} trend bed 12* · *${command} handover* · *${command} help*. On any message, *Check with Solute* (the message menu) checks it privately for you.`,
+    ),
+    p(
+      "*Privacy.* Solute never keeps message text, names, record numbers, dates of birth or user IDs. Tag a case by bed or bay (bed 12, #4B); only tagged numbers go into the channel's shift log, which clears itself. Delete a message that names a patient.",
+    ),
+    p(
+      `*Settings are per channel*: ${command} units si, units conventional or units none, in the channel they are for.`,
+    ),
+    {
+      type: "context",
+      elements: [
+        { type: "mrkdwn", text: "Decision support only; local protocols and the treating clinician decide." },
+      ],
+    },
+  ];
+}
+
+/** The welcome when the bot joins a channel. */
+export function welcomeText(command: string): string {
+  return `Solute is here: type lab values with ${command} or mention @Solute (Na 128 glu 540 mg/dL urea 14 mmol/L osm 310). Tag cases by bed or bay, never by name. ${command} help for more; ${command} units si or units conventional sets this channel's units.`;
+}
 
 const NEEDS_ESCAPE = /[&<>]/;
 
@@ -26,7 +63,8 @@ function cut(text: string, max: number): string {
   return text.length <= max ? text : `${text.slice(0, max - 1)}…`;
 }
 
-const md = (text: string) => escapeMrkdwn(typeset(text));
+/** Slack reads *, _ and ~ as formatting and has no escape for them: "2*131" shows as 2∗131. */
+const md = (text: string) => escapeMrkdwn(typeset(text)).replace(/\*/g, "∗");
 
 /** Splits lines into section-sized chunks, each within the text limit. */
 function sections(lines: string[], prefix = "• "): Block[] {
@@ -139,6 +177,24 @@ export function render(reply: Reply, options: RenderOptions = {}): SlackMessage 
       text: { type: "plain_text", text: "More" },
       action_id: ACTIONS.working,
       value,
+    });
+  }
+  if (value && reply.kind === "forget" && reply.confirm) {
+    buttons.push({
+      type: "button",
+      text: { type: "plain_text", text: "Clear the whole log" },
+      action_id: ACTIONS.forget,
+      value: "all",
+      style: "danger",
+      confirm: {
+        title: { type: "plain_text", text: "Clear the shift log?" },
+        text: {
+          type: "plain_text",
+          text: "Every case of this channel's shift log will be removed at once. The channel is told, without naming you.",
+        },
+        confirm: { type: "plain_text", text: "Clear it" },
+        deny: { type: "plain_text", text: "Keep it" },
+      },
     });
   }
   if (value && options.offerPost && reply.shareable) {

@@ -6,12 +6,16 @@ interface Timed<T> {
   expires: number;
 }
 
+/** Replies kept for their buttons, at most (one process; Redis keeps them for every replica). */
+const MAX_REPLIES = 5000;
+
 export class MemoryStore implements Store {
   readonly kind = "memory" as const;
   private settings = new Map<string, ChannelSettings>();
   private records = new Map<string, Timed<ShiftRecord>[]>();
   private seen = new Map<string, number>();
   private counters = new Map<string, Timed<number>>();
+  private replies = new Map<string, Timed<string>>();
   private sweeps = 0;
 
   constructor(private readonly now: () => number = Date.now) {}
@@ -51,6 +55,22 @@ export class MemoryStore implements Store {
     return list.length - kept.length;
   }
 
+  async saveReply(id: string, reply: string, ttlMs: number): Promise<void> {
+    // Bounded: past MAX_REPLIES the oldest go first (a Map keeps insertion order).
+    if (this.replies.size >= MAX_REPLIES) this.replies.delete(this.replies.keys().next().value!);
+    this.replies.set(id, { value: reply, expires: this.now() + ttlMs });
+  }
+
+  async loadReply(id: string): Promise<string | undefined> {
+    const r = this.replies.get(id);
+    if (!r) return undefined;
+    if (r.expires <= this.now()) {
+      this.replies.delete(id);
+      return undefined;
+    }
+    return r.value;
+  }
+
   async firstSeen(key: string, ttlMs: number): Promise<boolean> {
     const now = this.now();
     this.sweep(now);
@@ -81,6 +101,7 @@ export class MemoryStore implements Store {
     if (++this.sweeps % 256 !== 0) return;
     for (const [k, until] of this.seen) if (until <= now) this.seen.delete(k);
     for (const [k, c] of this.counters) if (c.expires <= now) this.counters.delete(k);
+    for (const [k, r] of this.replies) if (r.expires <= now) this.replies.delete(k);
   }
 }
 

@@ -12,6 +12,7 @@
  *                               JSON array: [id, tag, time, [input index, value, …],
  *                               [result index, value, …], [flags]] (the channel is the key)
  *   solute:seen:<key>           "1" with a TTL (SET NX PX)
+ *   solute:reply:<random id>    a reply's rendered fields (JSON, no message text), with a TTL
  *   solute:rate:<key>:<window>  counter with a TTL
  */
 import { randomBytes } from "node:crypto";
@@ -135,6 +136,14 @@ export class RedisStore implements Store {
     });
     if (mine.length === 0) return 0;
     return await this.client.zRem(key, mine);
+  }
+
+  async saveReply(id: string, reply: string, ttlMs: number): Promise<void> {
+    await this.client.set(`${P}reply:${id}`, reply, { PX: ttlMs });
+  }
+
+  async loadReply(id: string): Promise<string | undefined> {
+    return (await this.client.get(`${P}reply:${id}`)) ?? undefined;
   }
 
   async firstSeen(key: string, ttlMs: number): Promise<boolean> {

@@ -12,6 +12,7 @@
 import type { IncomingMessage, ServerResponse } from "node:http";
 import {
   type Activity,
+  ActivityTypes,
   CardFactory,
   CloudAdapter,
   ConfigurationBotFrameworkAuthentication,
@@ -24,6 +25,11 @@ import { errorCode, log } from "../../bot/log.js";
 import { channelKey } from "../../bot/privacy.js";
 import { channelOf, cleanText, mentionsBot } from "./events.js";
 import { renderCard } from "./render.js";
+
+const WELCOME =
+  "Solute is here: mention me with lab values (Na 128 glu 540 mg/dL urea 14 mmol/L osm 310), or message me directly. Tag cases by bed or bay, never by name. Type help for more; units si or units conventional sets this chat's units.";
+const QUIET_HINT =
+  "Mention me with lab values, like: Na 128 glu 540 mg/dL urea 14 mmol/L osm 310 — or type help.";
 
 /** Largest request body accepted; Teams activities are a few kilobytes. */
 export const MAX_BODY_BYTES = 256 * 1024;
@@ -79,9 +85,48 @@ export function createTeamsAdapter({
 
   const logic = async (context: TurnContext) => {
     const activity = context.activity;
+    // A welcome when the bot itself is added to a team, a channel or a chat.
+    if (activity.type === "conversationUpdate") {
+      if ((activity.membersAdded ?? []).some((m) => m.id === activity.recipient?.id))
+        await context.sendActivity(MessageFactory.text(WELCOME));
+      return;
+    }
+    // For the senior: the message action "Check with Solute" reads the message it is used on and
+    // answers privately, in a task module only the person who used it sees. Nothing is logged.
+    if (activity.type === "invoke" && activity.name === "composeExtension/fetchTask") {
+      const value = activity.value as { messagePayload?: { body?: { content?: string } } } | undefined;
+      const text = cleanText(value?.messagePayload?.body?.content ?? "");
+      const checkable = /\b(calc|calculated|gap|corrected|eff|effective|anion gap|ag)\b|=/i.test(text);
+      const reply = await bot.handle({
+        text: checkable && !/^check\b/i.test(text) ? `check ${text}` : text,
+        channel: channelOf(activity),
+        platform: "teams",
+        replay: true,
+      });
+      await context.sendActivity({
+        type: ActivityTypes.InvokeResponse,
+        value: {
+          status: 200,
+          body: {
+            task: {
+              type: "continue",
+              value: {
+                title: "Solute",
+                width: "medium",
+                height: "large",
+                card: CardFactory.adaptiveCard(renderCard(reply)),
+              },
+            },
+          },
+        },
+      });
+      return;
+    }
     if (activity.type !== "message") return;
     const type = activity.conversation?.conversationType;
-    if (type === "channel" && !mentionsBot(activity)) return;
+    // The confirm card's button: clear the whole log, then say so in the conversation.
+    const submitted = (activity.value as { solute?: string } | undefined)?.solute === "forget-all";
+    if (type === "channel" && !mentionsBot(activity) && !submitted) return;
     const id = `${activity.conversation?.id ?? ""}|${activity.id ?? ""}`;
     try {
       if (
@@ -93,8 +138,16 @@ export function createTeamsAdapter({
     } catch (error) {
       log("warn", "teams.dedup-unavailable", { platform: "teams", code: errorCode(error) });
     }
-    const text = cleanText(activity.text ?? "");
+    const text = submitted ? "forget all" : cleanText(activity.text ?? "");
     const reply = await bot.handle({ text, channel: channelOf(activity), platform: "teams" });
+    // A mention without lab values gets one short line, not a card.
+    if (
+      reply.kind === "nothing" &&
+      reply.problems.every((p) => p.code === "input.empty" || p.code === "word.unknown")
+    ) {
+      await context.sendActivity(MessageFactory.text(QUIET_HINT));
+      return;
+    }
     const message = MessageFactory.attachment(CardFactory.adaptiveCard(renderCard(reply)));
     message.summary = reply.headline;
     await context.sendActivity(message);

@@ -105,5 +105,17 @@ export function renderCard(reply: Reply, options: { working?: boolean } = {}): A
       },
     ];
   }
+  // The whole log is cleared only from this confirm card's button.
+  if (reply.kind === "forget" && reply.confirm) {
+    card.actions = [
+      ...(card.actions ?? []),
+      {
+        type: "Action.Submit",
+        title: "Clear the whole log",
+        style: "destructive",
+        data: { solute: "forget-all" },
+      },
+    ];
+  }
   return card;
 }

@@ -85,7 +85,7 @@ async function viaTerminal(text: string, working = false): Promise<string> {
 
 /** What a person sees in Slack's blocks: their texts, unescaped. */
 const slackText = (blocks: unknown) =>
-  JSON.stringify(blocks).replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+  JSON.stringify(blocks).replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&").replace(/∗/g, "*");
 
 async function viaSlack(text: string, n: number): Promise<string> {
   const base = fixture("slash-commands-slack.json").slashCommandWithArgs;

@@ -95,12 +95,16 @@ describe("a night of tagged calculations", () => {
     expect((await ask("trend bed 5")).headline).toMatch(/fewer than two sodiums/);
   });
 
-  it("forget clears the channel's log at once, and only that channel's", async () => {
+  it("forget asks first; forget all clears the channel's log, only that channel's, and says so to it", async () => {
     await ask("bed 12 Na 118");
     await ask("bed 3 Na 150", "C-other");
-    expect((await ask("forget")).headline).toBe(
-      "Shift log cleared: 1 record removed from this channel's log.",
-    );
+    const asked = await ask("forget");
+    expect(asked.headline).toBe("Clear this channel's whole shift log? 1 record of 1 case.");
+    expect(asked.confirm).toBe(true);
+    expect((await ask("handover")).headline).toMatch(/1 case/);
+    const cleared = await ask("forget all");
+    expect(cleared.headline).toBe("This channel's shift log was cleared: 1 record removed.");
+    expect(cleared.announce).toBe(true);
     expect((await ask("handover")).headline).toMatch(/nothing logged/);
     expect((await ask("handover", "C-other")).headline).toMatch(/1 case/);
   });
@@ -122,7 +126,7 @@ describe("a night of tagged calculations", () => {
     expect(calc.notes.join()).toMatch(/not logged/);
     expect((await ask("handover")).problems[0]!.code).toBe("store.unavailable");
     expect((await ask("trend bed 12")).problems[0]!.code).toBe("store.unavailable");
-    expect((await ask("forget")).problems[0]!.code).toBe("store.unavailable");
+    expect((await ask("forget all")).problems[0]!.code).toBe("store.unavailable");
   });
 
   it("keeps only numbers, the tag and the time — no text, no identifiers", async () => {

@@ -55,7 +55,8 @@ export async function fakeSlack(): Promise<FakeSlack> {
       }
       const method = path.replace(/^\/api\//, "");
       let answer: Record<string, unknown> = { ok: true };
-      if (method === "auth.test")
+      if (methods[method]) answer = methods[method]!();
+      else if (method === "auth.test")
         answer = {
           ok: true,
           user_id: BOT_USER_ID,
@@ -65,7 +66,6 @@ export async function fakeSlack(): Promise<FakeSlack> {
         };
       else if (method === "chat.postMessage")
         answer = { ok: true, ts: `${Date.now() / 1000}`, channel: body.channel };
-      else if (methods[method]) answer = methods[method]!();
       res.writeHead(200, { "content-type": "application/json" }).end(JSON.stringify(answer));
     });
   });

@@ -115,7 +115,8 @@ describe("slash command", () => {
     expect(call.body.text).toContain("gap 10.0");
   });
 
-  it("the post-to-channel button posts the answer for the team and removes the private one", async () => {
+  it("the post-to-channel button posts the kept answer for the team, removes the private one, logs nothing", async () => {
+    const value = await buttonValue("solute_post");
     const payload = {
       type: "block_actions",
       team: { id: "T00FAKE00BB", domain: "acme" },
@@ -126,8 +127,9 @@ describe("slash command", () => {
       channel: { id: "C00FAKECHAN3", name: "night" },
       container: { type: "message", message_ts: "1.1", channel_id: "C00FAKECHAN3", is_ephemeral: true },
       response_url: `${api.url}/respond/2`,
-      actions: [{ type: "button", action_id: "solute_post", block_id: "b", value: PANEL, action_ts: "1" }],
+      actions: [{ type: "button", action_id: "solute_post", block_id: "b", value, action_ts: "1" }],
     };
+    expect(value).toMatch(/^r1\./);
     const res = await postSigned(
       url,
       SECRET,
@@ -135,14 +137,28 @@ describe("slash command", () => {
       "application/x-www-form-urlencoded",
     );
     expect(res.status).toBe(200);
-    const calls = (await api.waitFor((c) => c.filter((x) => x.path === "/respond/2").length === 2)).filter(
+    const posted = (await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"))).find(
+      (c) => c.path === "/api/chat.postMessage",
+    )!;
+    expect(posted.body.text).toContain("gap 10.0");
+    const removed = (await api.waitFor((c) => c.some((x) => x.path === "/respond/2"))).find(
       (c) => c.path === "/respond/2",
-    );
-    expect(calls[0]!.body.response_type).toBe("in_channel");
-    expect(calls[0]!.body.text).toContain("gap 10.0");
-    expect(calls[1]!.body.delete_original).toBe(true);
+    )!;
+    expect(removed.body.delete_original).toBe(true);
+    // The button carried no message text, and pressing it logged nothing.
+    expect(value).not.toContain("Na 128");
   });
 });
+
+/** A button's value from a real private answer to the slash command. */
+async function buttonValue(actionId: string): Promise<string> {
+  const res = await postSigned(url, SECRET, slash(PANEL), "application/x-www-form-urlencoded");
+  const blocks = JSON.parse(res.text).blocks as {
+    type: string;
+    elements?: { action_id: string; value: string }[];
+  }[];
+  return blocks.flatMap((b) => b.elements ?? []).find((e) => e.action_id === actionId)!.value;
+}
 
 describe("mentions and direct messages", () => {
   it("a mention is answered in the thread of that message, with the mention stripped", async () => {
@@ -221,7 +237,15 @@ describe("mentions and direct messages", () => {
         is_ephemeral: false,
       },
       response_url: `${api.url}/respond/3`,
-      actions: [{ type: "button", action_id: "solute_working", block_id: "b", value: PANEL, action_ts: "1" }],
+      actions: [
+        {
+          type: "button",
+          action_id: "solute_working",
+          block_id: "b",
+          value: await buttonValue("solute_working"),
+          action_ts: "1",
+        },
+      ],
     };
     await postSigned(
       url,

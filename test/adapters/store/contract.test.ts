@@ -94,6 +94,15 @@ describe.each([
     expect(await store.forgetTag("c9", "bed 12")).toBe(0);
   });
 
+  it("keeps a reply for its buttons until it expires", async () => {
+    await store.saveReply("r-1", '{"headline":"h"}', 60_000);
+    expect(await store.loadReply("r-1")).toBe('{"headline":"h"}');
+    expect(await store.loadReply("r-2")).toBeUndefined();
+    await store.saveReply("r-3", "x", 1);
+    await new Promise((r) => setTimeout(r, 5));
+    expect(await store.loadReply("r-3")).toBeUndefined();
+  });
+
   it("forget clears the channel at once", async () => {
     const now = Date.now();
     await store.addRecord(record("c1", "bed 1", now, 118), 60_000);

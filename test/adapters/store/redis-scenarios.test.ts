@@ -8,7 +8,7 @@ import { setLogSink } from "../../../bot/log.js";
 import { type HttpServer, startServer } from "../../../bot/server.js";
 import { fixture } from "../../helpers/fixtures.js";
 import { startRedis, type TestRedis } from "../../helpers/redis.js";
-import { BOT_USER_ID, type FakeSlack, fakeSlack, form, postSigned } from "../../helpers/slack.js";
+import { BOT_USER_ID, type FakeSlack, fakeSlack, form, postSigned, sign } from "../../helpers/slack.js";
 
 const SIGNING = "replica-signing-secret";
 const logs: string[] = [];
@@ -70,7 +70,7 @@ describe("replicas sharing one Redis", () => {
     const fromB = await ask(b.bot, "handover");
     expect(fromA.headline).toBe("Handover: 1 case, 2 calculations in the last 16 h");
     expect(fromB.facts).toEqual(fromA.facts);
-    expect((await ask(b.bot, "forget")).headline).toMatch(/2 records removed/);
+    expect((await ask(b.bot, "forget all")).headline).toMatch(/2 records removed/);
     expect((await ask(a.bot, "handover")).headline).toMatch(/nothing logged/);
   });
 
@@ -252,5 +252,32 @@ describe("Redis stopped and restarted", () => {
     await ask(a.bot, "bed 12 Na 124");
     // Redis kept nothing on disk, so the log starts again from the restart.
     expect((await ask(a.bot, "handover")).headline).toBe("Handover: 1 case, 1 calculation in the last 16 h");
+  });
+});
+
+describe("replays across replicas", () => {
+  it("a signed slash command delivered to two replicas three times is answered and logged once", async () => {
+    await redis.flush();
+    const a = await replica();
+    const b = await replica();
+    const body = form({
+      ...fixture("slash-commands-slack.json").slashCommandWithArgs,
+      command: "/solute",
+      text: "bed 6 Na 122 glu 6 mmol/L urea 4 mmol/L",
+      response_url: `${api.url}/respond/r`,
+    });
+    const headers = { ...sign(SIGNING, body), "content-type": "application/x-www-form-urlencoded" };
+    const answered: string[] = [];
+    for (const target of [a.url, b.url, a.url]) {
+      const res = await fetch(target, { method: "POST", headers, body });
+      expect(res.status).toBe(200);
+      answered.push(await res.text());
+    }
+    expect(answered.filter((t) => t.includes("blocks"))).toHaveLength(1);
+    const { channelKey } = await import("../../../bot/privacy.js");
+    const id = fixture("slash-commands-slack.json").slashCommandWithArgs.channel_id as string;
+    expect(await b.store.listRecords(channelKey(b.bot.config.secret, "slack", id), Date.now())).toHaveLength(
+      1,
+    );
   });
 });

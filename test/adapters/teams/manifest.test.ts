@@ -22,7 +22,7 @@ const schema = JSON.parse(
       "build",
       "json-schemas",
       "teams",
-      "v1.17",
+      "v1.24",
       "MicrosoftTeams.schema.json",
     ),
     "utf8",
@@ -36,7 +36,7 @@ function pngSize(file: string): [number, number] {
 }
 
 describe("Teams app manifest", () => {
-  it("validates against the official v1.17 schema", () => {
+  it("validates against the official v1.24 schema", () => {
     const ajv = new Ajv({ allErrors: true, strict: false });
     addFormats(ajv);
     const validate = ajv.compile(schema);
@@ -58,8 +58,41 @@ describe("Teams app manifest", () => {
     expect(manifest.bots[0].commandLists[0].commands.map((c: { title: string }) => c.title)).toEqual([
       "help",
       "check",
+      "plan",
+      "trend",
+      "handover",
       "units",
+      "forget",
     ]);
+    // Every command the conversation answers is in the manifest.
+    expect(manifest.composeExtensions[0].commands[0]).toMatchObject({
+      type: "action",
+      context: ["message"],
+      fetchTask: true,
+    });
+  });
+
+  it("npm run teams:manifest fills the app ID and validDomains from configuration, and still validates", async () => {
+    const { run } = await import("../../helpers/spawn.js");
+    const r = await run(process.execPath, ["scripts/teams-manifest.mjs"], {
+      env: {
+        ...process.env,
+        MicrosoftAppId: "11111111-2222-3333-4444-555555555555",
+        SOLUTE_PUBLIC_HOST: "solute.hospital.example",
+      },
+    });
+    expect(r.code, r.stderr).toBe(0);
+    const built = JSON.parse(readFileSync(join(ROOT, "dist", "teams-app", "manifest.json"), "utf8"));
+    expect(built.validDomains).toEqual(["solute.hospital.example"]);
+    expect(built.bots[0].botId).toBe("11111111-2222-3333-4444-555555555555");
+    const ajv = new Ajv({ allErrors: true, strict: false });
+    addFormats(ajv);
+    const validate = ajv.compile(schema);
+    expect(validate(built), JSON.stringify(validate.errors)).toBe(true);
+    const refused = await run(process.execPath, ["scripts/teams-manifest.mjs"], {
+      env: { PATH: process.env.PATH ?? "" },
+    });
+    expect(refused.code).toBe(1);
   });
 
   it("ships icons of the sizes Teams asks for", () => {

@@ -218,3 +218,51 @@ describe("the Adaptive Card", () => {
     ).toBeGreaterThan(0);
   });
 });
+
+describe("Teams as its users expect (TEAMS_LOCAL=1)", () => {
+  beforeEach(() => start({ TEAMS_LOCAL: "1" }));
+  const withService = (a: Record<string, unknown>) => ({ ...a, serviceUrl: connector.serviceUrl });
+
+  it("a short welcome when the bot is added", async () => {
+    const res = await post(withService(fixture("interactions-teams.json").botAdded));
+    expect(res.status).toBe(200);
+    const [sent] = await connector.waitFor(1);
+    expect(sent!.activity.text).toMatch(/Solute is here/);
+  });
+
+  it("the message action checks the message where it stands, privately, in a task module", async () => {
+    const res = await post(withService(fixture("interactions-teams.json").messageAction));
+    expect(res.status).toBe(200);
+    const body = (await res.json()) as {
+      task: { type: string; value: { card: { content: { body: unknown } } } };
+    };
+    expect(body.task.type).toBe("continue");
+    // 2 × 131 + 22 + 9 = 293 [D]: the junior's 290 does not hold.
+    expect(JSON.stringify(body.task.value.card.content.body)).toMatch(
+      /calculated osmolality 290 does not hold/,
+    );
+    // Nothing was posted to the conversation, and nothing logged.
+    expect(connector.sent).toHaveLength(0);
+  });
+
+  it("forget answers with a confirm card; its button clears the log and says so", async () => {
+    const recorded = fixture("dm-teams.json").dmMessage;
+    await post(replay(recorded, "bed 3 Na 121", connector.serviceUrl));
+    await post(replay(recorded, "forget", connector.serviceUrl));
+    const sent = await connector.waitFor(2);
+    const card = (sent[1]!.activity.attachments as { content: AdaptiveCard }[])[0]!.content;
+    const submit = (card.actions ?? []).find((a) => a.type === "Action.Submit")!;
+    expect(submit).toMatchObject({ title: "Clear the whole log", data: { solute: "forget-all" } });
+    await post({ ...replay(recorded, "", connector.serviceUrl), text: undefined, value: submit.data });
+    const after = await connector.waitFor(3);
+    expect(JSON.stringify(after[2]!.activity)).toMatch(/shift log was cleared: 1 record removed/);
+  });
+
+  it("a mention without lab values gets one short line, not a card", async () => {
+    const recorded = fixture("channel-teams.json").mention;
+    await post(replay(recorded, "<at>Chat SDK Demo</at> thanks!", connector.serviceUrl));
+    const [sent] = await connector.waitFor(1);
+    expect(sent!.activity.attachments ?? []).toHaveLength(0);
+    expect(sent!.activity.text).toMatch(/Mention me with lab values/);
+  });
+});
