@@ -27,7 +27,13 @@ const flag = z
 const EnvSchema = z.object({
   NODE_ENV: z.string().optional(),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
-  HOST: z.string().default("0.0.0.0"),
+  HOST: z
+    .string()
+    .regex(
+      /^(\d{1,3}(\.\d{1,3}){3}|\[?[0-9a-f:]+\]?|[a-z0-9]([a-z0-9.-]{0,251}[a-z0-9])?)$/i,
+      "must be an IP address or a host name",
+    )
+    .default("0.0.0.0"),
   SOLUTE_SECRET: z.string().min(16, "must be at least 16 characters").optional(),
   SOLUTE_SHIFT_HOURS: z.coerce.number().min(1).max(72).default(16),
   // Sodium series must outlive the 24 h correction limit and the 48 h total (REFERENCES §5).
@@ -41,7 +47,11 @@ const EnvSchema = z.object({
   SOLUTE_DEFAULT_UNITS: z.enum(["si", "conventional"]).optional(),
   SOLUTE_RATE_LIMIT: z.coerce.number().int().min(1).max(100000).default(120),
   SOLUTE_LOG_LEVEL: z.enum(["info", "warn"]).default("info"),
-  REDIS_URL: z.string().url("must be a redis:// URL").optional(),
+  REDIS_URL: z
+    .string()
+    .regex(/^rediss?:\/\/[^\s]+$/, "must be a redis:// or rediss:// URL")
+    .optional(),
+  SOLUTE_STORE_TIMEOUT_MS: z.coerce.number().int().min(20).max(10_000).default(300),
   // Slack
   SLACK_BOT_TOKEN: z.string().startsWith("xoxb-", "must start with xoxb-").optional(),
   SLACK_SIGNING_SECRET: z.string().min(8).optional(),
@@ -93,6 +103,8 @@ export interface Config {
   rateLimitPerMinute: number;
   logLevel: "info" | "warn";
   redisUrl?: string;
+  /** How long a store call may take before the caller carries on without it, ms. */
+  storeTimeoutMs: number;
   slack?: SlackConfig;
   teams?: TeamsConfig;
 }
@@ -110,7 +122,8 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     throw new ConfigError(`Solute cannot start; fix these settings:\n${lines.join("\n")}`);
   }
   const e = parsed.data;
-  const production = e.NODE_ENV === "production";
+  // "production", "Production", "prod": all production (TEAMS_LOCAL is refused there).
+  const production = /^prod(uction)?$/i.test(e.NODE_ENV ?? "");
   const problems: string[] = [];
 
   let slack: SlackConfig | undefined;
@@ -173,6 +186,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     anionGapRange: e.SOLUTE_ANION_GAP_RANGE,
     rateLimitPerMinute: e.SOLUTE_RATE_LIMIT,
     logLevel: e.SOLUTE_LOG_LEVEL,
+    storeTimeoutMs: e.SOLUTE_STORE_TIMEOUT_MS,
     ...(e.SOLUTE_DEFAULT_UNITS && { defaultUnits: e.SOLUTE_DEFAULT_UNITS }),
     ...(e.REDIS_URL && { redisUrl: e.REDIS_URL }),
     ...(slack && { slack }),

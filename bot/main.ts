@@ -8,6 +8,22 @@ import { Conversation } from "./conversation.js";
 import { errorCode, log, setQuiet } from "./log.js";
 import { makeStore, startPlatforms } from "./platforms.js";
 
+/** A listen error as one line a person can act on. */
+function startError(error: unknown, config: Config): string | undefined {
+  const code = (error as { code?: string }).code;
+  if (code === "EADDRINUSE") return `Solute cannot start: port ${config.port} is in use (PORT).`;
+  if (code === "EACCES") return `Solute cannot start: not allowed to listen on port ${config.port} (PORT).`;
+  if (code === "EADDRNOTAVAIL" || code === "ENOTFOUND" || code === "EAI_AGAIN")
+    return `Solute cannot start: HOST ${config.host} is not an address of this machine.`;
+  return undefined;
+}
+
+// A rejection nobody handled is logged with its code; the process stays up (the conversation,
+// the store and the platforms each carry on without what failed).
+process.on("unhandledRejection", (reason) =>
+  log("error", "unhandled-rejection", { code: errorCode(reason) }),
+);
+
 async function main(): Promise<void> {
   let config: Config;
   try {
@@ -28,7 +44,15 @@ async function main(): Promise<void> {
   }
   setQuiet(config.logLevel === "warn");
   if (config.ephemeralSecret) log("warn", "config.ephemeral-secret");
-  const running = await startPlatforms(config);
+  let running: Awaited<ReturnType<typeof startPlatforms>>;
+  try {
+    running = await startPlatforms(config);
+  } catch (error) {
+    const line = startError(error, config);
+    if (!line) throw error;
+    process.stderr.write(`${line}\n`);
+    process.exit(1);
+  }
   // SIGTERM: stop accepting, let requests in flight finish, close the store, exit 0.
   let stopping = false;
   const shutdown = async (signal: string) => {

@@ -15,7 +15,7 @@ import type { Store } from "./store.js";
 export async function makeStore(config: Config): Promise<Store> {
   if (!config.redisUrl) return new MemoryStore();
   const { RedisStore } = await import("../adapters/store/redis.js");
-  const store = new RedisStore(config.redisUrl);
+  const store = new RedisStore(config.redisUrl, Date.now, config.storeTimeoutMs);
   await store.connect();
   const ok = await store.ready();
   log(ok ? "info" : "warn", "store.redis", { code: ok ? "ready" : "not-yet-reachable" });
@@ -33,12 +33,23 @@ export async function startPlatforms(config: Config): Promise<Running> {
   const bot = new Conversation(store, config);
   const routes: Record<string, Handler> = {};
   const stops: (() => Promise<void>)[] = [];
+  let unitsLoaded = false;
+  const checks: Record<string, () => { ready: boolean; code?: string }> = {
+    units: () => ({ ready: unitsLoaded, code: "loading" }),
+  };
+  // The unit tables load now; /readyz turns 200 only once they are in (the first message waits for nothing).
+  const units = loadUnits().then(() => {
+    unitsLoaded = true;
+  });
 
   if (config.slack) {
     const { createSlackAdapter } = await import("../adapters/slack/app.js");
     const slack = createSlackAdapter({ config: config.slack, bot });
     if (slack.handler) routes["/slack/events"] = slack.handler;
+    // Never fatal: a Slack that cannot authenticate is retried in the background and named by
+    // /readyz, while Teams and the health endpoints keep serving.
     await slack.start();
+    checks.slack = () => slack.status();
     stops.push(() => slack.stop());
     log("info", config.slack.appToken ? "slack.socket-mode" : "slack.http", { platform: "slack" });
   }
@@ -56,10 +67,15 @@ export async function startPlatforms(config: Config): Promise<Running> {
     log("info", "teams.http", { platform: "teams" });
   }
 
-  const server = await startServer({ port: config.port, host: config.host, routes, store });
+  const server = await startServer({
+    port: config.port,
+    host: config.host,
+    routes,
+    store,
+    checks: () => Object.fromEntries(Object.entries(checks).map(([k, c]) => [k, c()])),
+  });
+  await units;
   log("info", "ready", { count: server.port });
-  // Warm the unit machinery now, so the first message does not wait for it.
-  void loadUnits();
   return {
     port: server.port,
     stop: async () => {

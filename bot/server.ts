@@ -16,11 +16,16 @@ export interface HttpServer {
   close(graceMs?: number): Promise<void>;
 }
 
+/** How long /readyz waits for the store before it answers 503. */
+export const READY_TIMEOUT_MS = 800;
+
 export async function startServer(options: {
   port: number;
   host: string;
   routes: Record<string, Handler>;
   store: Store;
+  /** What else must be ready: the unit tables, each chat platform ("slack": its state). */
+  checks?: () => Record<string, { ready: boolean; code?: string }>;
 }): Promise<HttpServer> {
   const { routes, store } = options;
   const server = createServer((req, res) => {
@@ -30,14 +35,29 @@ export async function startServer(options: {
       return;
     }
     if (path === "/readyz") {
-      store
-        .ready()
-        .catch(() => false)
-        .then((ok) => {
-          res
-            .writeHead(ok ? 200 : 503, { "content-type": "application/json" })
-            .end(JSON.stringify({ status: ok ? "ready" : "store-unavailable", store: store.kind }));
-        });
+      // Ready means ready: the store answers (within a bound), the unit tables are loaded, and
+      // every configured platform is authenticated. Otherwise 503, naming what is not.
+      let timer: NodeJS.Timeout | undefined;
+      Promise.race([
+        store.ready().catch(() => false),
+        new Promise<boolean>((r) => {
+          timer = setTimeout(() => r(false), READY_TIMEOUT_MS);
+        }),
+      ]).then((storeOk) => {
+        clearTimeout(timer);
+        const checks = options.checks?.() ?? {};
+        const waiting = Object.entries(checks).filter(([, c]) => !c.ready);
+        const ok = storeOk && waiting.length === 0;
+        res.writeHead(ok ? 200 : 503, { "content-type": "application/json" }).end(
+          JSON.stringify({
+            status: ok ? "ready" : !storeOk ? "store-unavailable" : "not-ready",
+            store: store.kind,
+            ...(waiting.length > 0 && {
+              waiting: Object.fromEntries(waiting.map(([name, c]) => [name, c.code ?? "starting"])),
+            }),
+          }),
+        );
+      });
       return;
     }
     const route = routes[path];

@@ -181,6 +181,24 @@ export function trendJson(t: CorrectionTrend) {
   };
 }
 
+/**
+ * Says so when the log starts inside the window being judged: a new deployment, or a store that
+ * lost its data (Redis restarted without persistence). Undefined when the whole window is there.
+ */
+async function logGap(bot: Conversation, ctx: Context, windowStart: number): Promise<string | undefined> {
+  let start: number | undefined;
+  try {
+    start = await bot.store.logStart(ctx.channel);
+  } catch {
+    return undefined;
+  }
+  const now = bot.clock();
+  if (start === undefined)
+    return "This channel's log has no start mark: earlier records may be gone (the store may have been reset).";
+  if (start <= windowStart) return undefined;
+  return `This channel's log starts ${ago(now - start)}: nothing logged before then is here (a new deployment, or the store was reset without persistence).`;
+}
+
 const unavailable = (what: string): Reply => {
   const reply = emptyReply(
     "handover",
@@ -265,6 +283,8 @@ export async function handover(ctx: Context, bot: Conversation): Promise<Reply> 
     }
   }
   if (dangers.length > 0) reply.headline = `Handover — ${dangers.join("; ")}. ${reply.headline}`;
+  const gone = await logGap(bot, ctx, shiftFrom);
+  if (gone) reply.problems.push({ code: "store.logReset", message: gone });
   reply.notes.push(
     "forget bed 12 clears one case; forget clears this channel's log. Records clear themselves.",
   );
@@ -294,6 +314,7 @@ export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
   let t: CorrectionTrend | undefined;
   let source: string;
   let shownName: string | undefined;
+  let logNote: string | undefined;
   if (series.timed || series.problems.length > 0) {
     // A series written in the message: answered exactly as a logged one.
     if (series.points.length < 2) {
@@ -334,6 +355,8 @@ export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
     if (!records) return unavailable("trend");
     const episode = episodeOf(records, name);
     t = episodeTrend(episode, bot.clock(), highRisk);
+    const gone = t ? await logGap(bot, ctx, bot.clock() - bot.config.shiftMs) : undefined;
+    if (gone) logNote = gone;
     source =
       episode.startedAt !== undefined
         ? `logged for ${name}, episode began ${ago(bot.clock() - episode.startedAt)}`
@@ -359,6 +382,7 @@ export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
   if (t!.highRisk && t!.direction === "raising")
     reply.notes.push("High risk of osmotic demyelination: the 8 mmol/L limit applies in every 24 h.");
   reply.notes.push(`Series ${source}; windows count from the first sodium (hour 0).`);
+  if (logNote) reply.problems.push({ code: "store.logReset", message: logNote });
   reply.cautions = [TREND_CAUTION, CAUTIONS.general];
   reply.visibleCautions = [TREND_SHORT, SHORT_CAUTIONS.general];
   reply.why = t!.findings.slice(0, 3).map((f) =>

@@ -42,6 +42,11 @@ export interface Store {
   addRecord(record: ShiftRecord, ttlMs: number): Promise<void>;
   /** The channel's unexpired records, oldest first. */
   listRecords(channel: string, now: number): Promise<ShiftRecord[]>;
+  /**
+   * When the channel's log began: set with its first record, kept as long as the log. Missing, or
+   * newer than a window being judged, means earlier records are not there (a reset store).
+   */
+  logStart(channel: string): Promise<number | undefined>;
   /** Clears the channel's shift log at once; returns how many records went. */
   forget(channel: string): Promise<number>;
   /** Removes one case's records (a bed tag is reused when a patient leaves); returns how many went. */

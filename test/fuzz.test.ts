@@ -9,8 +9,9 @@ describe("fuzzing (fast slice)", () => {
     expect(oracle("cos(1)")).toBeUndefined();
   });
 
-  it("no exception escapes; every answer is a correct result or a clear problem; time stays bounded", async () => {
-    const reports = await runFuzz({ count: 6000, seconds: 60, seed: 20261201 });
+  // Time budgets are npm run fuzz's; here only correctness, so a loaded machine cannot fail it.
+  it("no exception escapes; every answer is a correct result or a clear problem", async () => {
+    const reports = await runFuzz({ count: 6000, seconds: 60, seed: 20261201, timeBudgets: false });
     for (const r of reports) {
       expect(r.failures, r.target).toEqual([]);
       expect(r.runs, r.target).toBeGreaterThan(1000);

@@ -51,9 +51,15 @@ const DEDUP_MS = 60 * 60 * 1000;
 export interface SlackAdapter {
   /** The HTTP handler for /slack/events (HTTP mode only). */
   handler?: (req: IncomingMessage, res: ServerResponse) => void;
+  /** Authenticates (and, in Socket Mode, connects), retrying with backoff; never throws. */
   start(): Promise<void>;
   stop(): Promise<void>;
+  /** Whether Slack is usable now, and the error code of the last failed attempt if not. */
+  status(): { ready: boolean; code?: string };
 }
+
+/** Backoff between authentication attempts: 1 s doubling to at most a minute. */
+export const AUTH_BACKOFF_MS = { first: 1000, max: 60_000 } as const;
 
 /** Bolt's own logs can carry payloads; keep only its warnings and errors, as codes. */
 const quietLogger = {
@@ -70,18 +76,91 @@ const quietLogger = {
   setName() {},
 };
 
+/** Waits between tries of a rate-limited call without Retry-After: 500 ms doubling, 4 tries at most. */
+export const RATE_BACKOFF_MS = 500;
+
+/**
+ * Runs one Web API call, waiting out a 429 for this call only: Retry-After when Slack gives it
+ * (at most 30 s), else a bounded backoff. Other channels' replies are not held.
+ */
+export async function withBackoff<T>(call: () => Promise<T>, firstWaitMs = RATE_BACKOFF_MS): Promise<T> {
+  let wait = firstWaitMs;
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return await call();
+    } catch (error) {
+      const { code, retryAfter, message } = error as { code?: string; retryAfter?: number; message?: string };
+      // The client names a 429 with Retry-After by its code; one without the header only by this
+      // message (the SDK gives no code for it).
+      const limited =
+        code === "slack_webapi_rate_limited_error" ||
+        /^Retry header did not contain a valid timeout/.test(message ?? "");
+      if (!limited || attempt >= 3) throw error;
+      const ms = Number.isFinite(retryAfter) && retryAfter! > 0 ? Math.min(retryAfter! * 1000, 30_000) : wait;
+      log("warn", "slack.rate-limited", { platform: "slack", ms });
+      await new Promise((r) => setTimeout(r, ms));
+      wait *= 2;
+    }
+  }
+}
+
+/** Reads a body up to `limit` bytes; undefined when it is larger. */
+function readBody(req: IncomingMessage, limit: number): Promise<Buffer | undefined> {
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = [];
+    let size = 0;
+    req.on("data", (chunk: Buffer) => {
+      size += chunk.length;
+      if (size > limit) {
+        req.removeAllListeners("data");
+        req.resume();
+        resolve(undefined);
+      } else chunks.push(chunk);
+    });
+    req.on("end", () => resolve(Buffer.concat(chunks)));
+    req.on("error", reject);
+  });
+}
+
+/** Whether a body is the object Slack sends: JSON of an object, or a form whose payload is one. */
+export function plausibleBody(raw: Buffer, contentType: string): boolean {
+  const text = raw.toString("utf8");
+  const isObject = (s: string) => {
+    try {
+      const v = JSON.parse(s) as unknown;
+      return typeof v === "object" && v !== null && !Array.isArray(v);
+    } catch {
+      return false;
+    }
+  };
+  if (contentType.includes("json")) return isObject(text);
+  const payload = new URLSearchParams(text).get("payload");
+  return payload === null || isObject(payload);
+}
+
 export interface SlackOptions {
   config: SlackConfig;
   bot: Conversation;
   /** For tests: skip auth.test and give the bot's user ID. */
   botUserId?: string;
+  /** For tests: the first wait between authentication attempts (1 s otherwise). */
+  backoffMs?: number;
   clock?: () => number;
 }
 
-export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }: SlackOptions): SlackAdapter {
+export function createSlackAdapter({
+  config,
+  bot,
+  botUserId,
+  clock = Date.now,
+  backoffMs = AUTH_BACKOFF_MS.first,
+}: SlackOptions): SlackAdapter {
   const clientOptions = {
     ...(config.apiUrl && { slackApiUrl: config.apiUrl.endsWith("/") ? config.apiUrl : `${config.apiUrl}/` }),
     retryConfig: { retries: 2, factor: 2, minTimeout: 200, maxTimeout: 2000 },
+    // A 429 is the caller's to wait for (withBackoff): the client then never pauses every
+    // channel's replies for one channel's Retry-After.
+    rejectRateLimitedCalls: true,
   };
   const socket = config.appToken !== undefined;
   const receiver = socket
@@ -99,13 +178,45 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         // Answers that are not acknowledged in time still get a 200, within Slack's 3 seconds.
         processBeforeResponse: false,
       });
+  // Initialised by start(), not in the constructor: a failing auth.test (Slack unreachable, a
+  // revoked token, 5xx, 429) is retried with backoff instead of ending the process.
   const app = new App({
     token: config.botToken,
     receiver,
     logger: quietLogger,
     clientOptions,
+    deferInitialization: true,
     ...(botUserId && { botUserId, botId: "B0SOLUTE", tokenVerificationEnabled: false }),
   });
+  let ready = false;
+  let stopped = false;
+  let lastCode: string | undefined;
+  let retry: NodeJS.Timeout | undefined;
+  const attempt = async (): Promise<void> => {
+    try {
+      await app.init();
+      if (socket) await app.start();
+      ready = true;
+      lastCode = undefined;
+      log("info", socket ? "slack.socket-mode.connected" : "slack.authenticated", { platform: "slack" });
+    } catch (error) {
+      lastCode = (error as { data?: { error?: string } }).data?.error ?? errorCode(error);
+      log("warn", "slack.start-failed", { platform: "slack", code: lastCode });
+      throw error;
+    }
+  };
+  const keepTrying = (wait: number) => {
+    if (stopped) return;
+    retry = setTimeout(() => {
+      attempt().catch(() => keepTrying(Math.min(wait * 2, AUTH_BACKOFF_MS.max)));
+    }, wait);
+    retry.unref();
+  };
+  const start = async () => {
+    // The first attempt is awaited (a working start is ready at once); later ones run behind.
+    await attempt().catch(() => keepTrying(backoffMs));
+  };
+  const status = () => ({ ready, ...(lastCode && { code: lastCode }) });
   const secretFor = (id: string) => channelKey(bot.config.secret, "slack", `event:${id}`);
 
   // Retried deliveries (X-Slack-Retry-Num, Socket Mode retry_attempt) carry the same event ID.
@@ -201,12 +312,14 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         ? "I am not in this channel: invite me with /invite @Solute, or use the slash command, whose answer comes privately."
         : "Slack did not take my answer just now: please send it again in a moment.";
     try {
-      await client.chat.postEphemeral({
-        channel,
-        user,
-        text: `Solute could not post its answer. ${why}`,
-        ...(threadTs && { thread_ts: threadTs }),
-      });
+      await withBackoff(async () =>
+        client.chat.postEphemeral({
+          channel,
+          user,
+          text: `Solute could not post its answer. ${why}`,
+          ...(threadTs && { thread_ts: threadTs }),
+        }),
+      );
     } catch (second) {
       log("warn", "slack.note-failed", { platform: "slack", code: errorCode(second) });
     }
@@ -223,20 +336,25 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
       reply.problems.every((p) => p.code === "input.empty" || p.code === "word.unknown")
     ) {
       try {
-        if (event.user)
-          await client.chat.postEphemeral({
-            channel: event.channel,
-            user: event.user,
-            thread_ts: thread,
-            text: QUIET_HINT,
-          });
+        const user = event.user;
+        if (user)
+          await withBackoff(async () =>
+            client.chat.postEphemeral({
+              channel: event.channel,
+              user,
+              thread_ts: thread,
+              text: QUIET_HINT,
+            }),
+          );
       } catch (error) {
         log("warn", "slack.note-failed", { platform: "slack", code: errorCode(error) });
       }
       return;
     }
     try {
-      await client.chat.postMessage({ channel: event.channel, thread_ts: thread, ...(await message(reply)) });
+      await withBackoff(async () =>
+        client.chat.postMessage({ channel: event.channel, thread_ts: thread, ...(await message(reply)) }),
+      );
     } catch (error) {
       await cannotPost(client, event.channel, event.user, error, thread);
     }
@@ -250,11 +368,13 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     // A message inside a DM thread is answered in that thread.
     const thread = "thread_ts" in m && typeof m.thread_ts === "string" ? m.thread_ts : undefined;
     try {
-      await client.chat.postMessage({
-        channel: m.channel,
-        ...(thread && { thread_ts: thread }),
-        ...(await message(reply)),
-      });
+      await withBackoff(async () =>
+        client.chat.postMessage({
+          channel: m.channel,
+          ...(thread && { thread_ts: thread }),
+          ...(await message(reply)),
+        }),
+      );
     } catch (error) {
       await cannotPost(client, m.channel, "user" in m ? (m.user as string) : undefined, error, thread);
     }
@@ -289,7 +409,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     }
     const channel = body.channel?.id ?? "";
     try {
-      await client.chat.postMessage({ channel, ...(await message(reply)) });
+      await withBackoff(async () => client.chat.postMessage({ channel, ...(await message(reply)) }));
       await respond({ delete_original: true });
     } catch (error) {
       // The bot may not be in the channel (an answer shared from a DM): say so, privately.
@@ -321,7 +441,10 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
       return;
     }
     try {
-      await client.chat.update({ channel, ts: container.message_ts, ...render(expanded, { working: true }) });
+      const ts = container.message_ts;
+      await withBackoff(async () =>
+        client.chat.update({ channel, ts, ...render(expanded, { working: true }) }),
+      );
     } catch (error) {
       await cannotPost(client, channel, body.user?.id, error);
     }
@@ -334,7 +457,7 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
     await respond({ response_type: "ephemeral", replace_original: true, ...render(reply) });
     if (reply.kind === "forget" && reply.announce) {
       try {
-        await client.chat.postMessage({ channel, text: reply.headline });
+        await withBackoff(async () => client.chat.postMessage({ channel, text: reply.headline }));
       } catch (error) {
         await cannotPost(client, channel, body.user?.id, error);
       }
@@ -369,7 +492,9 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
   app.event("member_joined_channel", async ({ event, client, context }) => {
     if (event.user !== context.botUserId) return;
     try {
-      await client.chat.postMessage({ channel: event.channel, text: welcomeText(config.command) });
+      await withBackoff(async () =>
+        client.chat.postMessage({ channel: event.channel, text: welcomeText(config.command) }),
+      );
     } catch (error) {
       log("warn", "slack.welcome-failed", { platform: "slack", code: errorCode(error) });
     }
@@ -384,17 +509,44 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
 
   if (socket) {
     return {
-      start: async () => {
-        await app.start();
-        log("info", "slack.socket-mode.connected", { platform: "slack" });
-      },
+      start,
+      status,
       stop: async () => {
-        await app.stop();
+        stopped = true;
+        clearTimeout(retry);
+        if (ready) await app.stop();
       },
     };
   }
 
   const listener = (receiver as InstanceType<typeof HTTPReceiver>).requestListener;
+
+  /**
+   * A signed request delivered again inside the window (a replay) is answered once, on every
+   * replica: its signature is remembered (as an HMAC) for the window. A forged one fails in Bolt.
+   */
+  function dispatch(req: IncomingMessage, res: ServerResponse, ts: number): void {
+    const signature = req.headers["x-slack-signature"];
+    if (typeof signature !== "string" || req.headers["x-slack-retry-num"] !== undefined) {
+      listener(req, res);
+      return;
+    }
+    const key = `slack:signed:${createHmac("sha256", bot.config.secret).update(`${ts}:${signature}`).digest("base64url").slice(0, 32)}`;
+    bot.store.firstSeen(key, REPLAY_MS).then(
+      (first) => {
+        if (first) listener(req, res);
+        else {
+          log("info", "slack.replay-dropped", { platform: "slack" });
+          res.writeHead(200).end();
+        }
+      },
+      (error) => {
+        // Without the store a replay cannot be told from a first delivery: answer it.
+        log("warn", "slack.dedup-unavailable", { platform: "slack", code: errorCode(error) });
+        listener(req, res);
+      },
+    );
+  }
   return {
     handler: (req, res) => {
       if (Number(req.headers["content-length"] ?? 0) > MAX_BODY_BYTES) {
@@ -410,31 +562,39 @@ export function createSlackAdapter({ config, bot, botUserId, clock = Date.now }:
         res.writeHead(401).end();
         return;
       }
-      // A signed request delivered again inside the window (a replay) is answered once, on every
-      // replica: its signature is remembered (as an HMAC) for the window. A forged one fails in Bolt.
-      const signature = req.headers["x-slack-signature"];
-      if (typeof signature !== "string" || req.headers["x-slack-retry-num"] !== undefined) {
-        listener(req, res);
+      if (!ready) {
+        log("warn", "slack.refused", { platform: "slack", code: lastCode ?? "not-ready", status: 503 });
+        req.resume();
+        res.writeHead(503, { "retry-after": "5" }).end();
         return;
       }
-      const key = `slack:signed:${createHmac("sha256", bot.config.secret).update(`${ts}:${signature}`).digest("base64url").slice(0, 32)}`;
-      bot.store.firstSeen(key, REPLAY_MS).then(
-        (first) => {
-          if (first) listener(req, res);
-          else {
-            log("info", "slack.replay-dropped", { platform: "slack" });
-            req.resume();
-            res.writeHead(200).end();
+      // The body is read here, within the limit, and checked before Bolt sees it: anything but
+      // the object Slack sends (null, an array, a number, a string, payload=null) is refused.
+      readBody(req, MAX_BODY_BYTES).then(
+        (raw) => {
+          if (raw === undefined) {
+            log("warn", "slack.refused", { platform: "slack", code: "too-large", status: 413 });
+            res.writeHead(413, { connection: "close" }).end();
+            return;
           }
+          if (!plausibleBody(raw, String(req.headers["content-type"] ?? ""))) {
+            log("warn", "slack.refused", { platform: "slack", code: "malformed", status: 400 });
+            res.writeHead(400).end();
+            return;
+          }
+          (req as IncomingMessage & { rawBody?: Buffer }).rawBody = raw;
+          dispatch(req, res, ts);
         },
-        (error) => {
-          // Without the store a replay cannot be told from a first delivery: answer it.
-          log("warn", "slack.dedup-unavailable", { platform: "slack", code: errorCode(error) });
-          listener(req, res);
+        () => {
+          if (!res.headersSent) res.writeHead(400).end();
         },
       );
     },
-    start: async () => {},
-    stop: async () => {},
+    start,
+    status,
+    stop: async () => {
+      stopped = true;
+      clearTimeout(retry);
+    },
   };
 }

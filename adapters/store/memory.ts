@@ -16,6 +16,7 @@ export class MemoryStore implements Store {
   private seen = new Map<string, number>();
   private counters = new Map<string, Timed<number>>();
   private replies = new Map<string, Timed<string>>();
+  private starts = new Map<string, Timed<number>>();
   private sweeps = 0;
 
   constructor(private readonly now: () => number = Date.now) {}
@@ -28,7 +29,16 @@ export class MemoryStore implements Store {
     this.settings.set(channel, { ...settings });
   }
 
+  async logStart(channel: string): Promise<number | undefined> {
+    const s = this.starts.get(channel);
+    return s && s.expires > this.now() ? s.value : undefined;
+  }
+
   async addRecord(record: ShiftRecord, ttlMs: number): Promise<void> {
+    const start = this.starts.get(record.channel);
+    const expires = record.at + ttlMs;
+    if (!start || start.expires <= this.now()) this.starts.set(record.channel, { value: record.at, expires });
+    else if (expires > start.expires) start.expires = expires;
     const list = this.records.get(record.channel) ?? [];
     list.push({ value: deepFreeze(structuredClone(record)), expires: record.at + ttlMs });
     this.records.set(record.channel, list);
@@ -45,6 +55,7 @@ export class MemoryStore implements Store {
   async forget(channel: string): Promise<number> {
     const n = this.records.get(channel)?.length ?? 0;
     this.records.delete(channel);
+    this.starts.delete(channel);
     return n;
   }
 

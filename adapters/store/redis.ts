@@ -12,6 +12,7 @@
  *                               JSON array: [id, tag, time, [input index, value, …],
  *                               [result index, value, …], [flags]] (the channel is the key)
  *   solute:seen:<key>           "1" with a TTL (SET NX PX)
+ *   solute:logstart:<channel>   when the channel's log began (ms), expiring with the log
  *   solute:reply:<random id>    a reply's rendered fields (JSON, no message text), with a TTL
  *   solute:rate:<key>:<window>  counter with a TTL
  */
@@ -29,9 +30,18 @@ import { INPUT_KEYS } from "../../core/inputs.js";
 
 const P = "solute:";
 
+/** How long a Redis call may take before the caller carries on without it (SOLUTE_STORE_TIMEOUT_MS). */
+export const DEFAULT_TIMEOUT_MS = 300;
+
+export class StoreTimeoutError extends Error {
+  override name = "StoreTimeoutError";
+  readonly code = "store.timeout";
+}
+
 export class RedisStore implements Store {
   readonly kind = "redis" as const;
   private readonly client;
+  private readonly timeoutMs: number;
   private lastState: "up" | "down" = "up";
   /** Members already parsed and checked (they never change once written), bounded. */
   private readonly checked = new Map<string, ShiftRecord>();
@@ -39,7 +49,9 @@ export class RedisStore implements Store {
   constructor(
     url: string,
     private readonly now: () => number = Date.now,
+    timeoutMs = DEFAULT_TIMEOUT_MS,
   ) {
+    this.timeoutMs = timeoutMs;
     this.client = createClient({
       url,
       disableOfflineQueue: true,
@@ -70,33 +82,52 @@ export class RedisStore implements Store {
     await Promise.race([connecting, new Promise((r) => setTimeout(r, timeoutMs).unref())]);
   }
 
+  /** Every call is bounded: a hung Redis costs a caller at most `timeoutMs`, never its answer. */
+  private bounded<T>(work: Promise<T>): Promise<T> {
+    let timer: NodeJS.Timeout | undefined;
+    return Promise.race([
+      work,
+      new Promise<never>((_, reject) => {
+        timer = setTimeout(() => reject(new StoreTimeoutError("store call timed out")), this.timeoutMs);
+      }),
+    ]).finally(() => clearTimeout(timer));
+  }
+
   async getSettings(channel: string): Promise<ChannelSettings> {
-    const raw = await this.client.get(`${P}settings:${channel}`);
+    const raw = await this.bounded(this.client.get(`${P}settings:${channel}`));
     return raw ? (JSON.parse(raw) as ChannelSettings) : {};
   }
 
   async setSettings(channel: string, settings: ChannelSettings): Promise<void> {
-    await this.client.set(`${P}settings:${channel}`, JSON.stringify(settings));
+    await this.bounded(this.client.set(`${P}settings:${channel}`, JSON.stringify(settings)));
   }
 
   async addRecord(record: ShiftRecord, ttlMs: number): Promise<void> {
     const key = `${P}log:${record.channel}`;
     const expires = record.at + ttlMs;
-    await this.client
-      .multi()
-      .zAdd(key, { score: expires, value: encode(record) })
-      .pExpireAt(key, expires, "GT")
-      .pExpireAt(key, expires, "NX")
-      .exec();
+    await this.bounded(
+      this.client
+        .multi()
+        .zAdd(key, { score: expires, value: encode(record) })
+        .pExpireAt(key, expires, "GT")
+        .pExpireAt(key, expires, "NX")
+        // When the log began: written with the first record, kept as long as the log.
+        .set(`${P}logstart:${record.channel}`, String(record.at), { NX: true, PXAT: expires })
+        .pExpireAt(`${P}logstart:${record.channel}`, expires, "GT")
+        .exec(),
+    );
+  }
+
+  async logStart(channel: string): Promise<number | undefined> {
+    const raw = await this.bounded(this.client.get(`${P}logstart:${channel}`));
+    return raw === null ? undefined : Number(raw);
   }
 
   async listRecords(channel: string, now: number): Promise<ShiftRecord[]> {
     const key = `${P}log:${channel}`;
-    const [, members] = (await this.client
-      .multi()
-      .zRemRangeByScore(key, "-inf", now)
-      .zRange(key, 0, -1)
-      .exec()) as unknown as [number, string[]];
+    const [, members] = (await this.bounded(
+      this.client.multi().zRemRangeByScore(key, "-inf", now).zRange(key, 0, -1).exec(),
+    )) as unknown as [number, string[]];
     // What comes back from a shared store is checked, not trusted: a malformed record is skipped.
     const records: ShiftRecord[] = [];
     for (const member of members) {
@@ -119,13 +150,15 @@ export class RedisStore implements Store {
 
   async forget(channel: string): Promise<number> {
     const key = `${P}log:${channel}`;
-    const [count] = (await this.client.multi().zCard(key).del(key).exec()) as unknown as [number, number];
+    const [count] = (await this.bounded(
+      this.client.multi().zCard(key).del(key).del(`${P}logstart:${channel}`).exec(),
+    )) as unknown as [number, number];
     return count;
   }
 
   async forgetTag(channel: string, tag: string): Promise<number> {
     const key = `${P}log:${channel}`;
-    const members = await this.client.zRange(key, 0, -1);
+    const members = await this.bounded(this.client.zRange(key, 0, -1));
     // The tag is the second element of each member's array; only whole matches are removed.
     const mine = members.filter((m) => {
       try {
@@ -135,44 +168,52 @@ export class RedisStore implements Store {
       }
     });
     if (mine.length === 0) return 0;
-    return await this.client.zRem(key, mine);
+    return await this.bounded(this.client.zRem(key, mine));
   }
 
   async saveReply(id: string, reply: string, ttlMs: number): Promise<void> {
-    await this.client.set(`${P}reply:${id}`, reply, { PX: ttlMs });
+    await this.bounded(this.client.set(`${P}reply:${id}`, reply, { PX: ttlMs }));
   }
 
   async loadReply(id: string): Promise<string | undefined> {
-    return (await this.client.get(`${P}reply:${id}`)) ?? undefined;
+    return (await this.bounded(this.client.get(`${P}reply:${id}`))) ?? undefined;
   }
 
   async firstSeen(key: string, ttlMs: number): Promise<boolean> {
-    return (await this.client.set(`${P}seen:${key}`, "1", { NX: true, PX: ttlMs })) === "OK";
+    return (await this.bounded(this.client.set(`${P}seen:${key}`, "1", { NX: true, PX: ttlMs }))) === "OK";
   }
 
   async hit(key: string, limit: number, windowMs: number): Promise<boolean> {
     const window = Math.floor(this.now() / windowMs);
     const k = `${P}rate:${key}:${window}`;
-    const [count] = (await this.client.multi().incr(k).pExpire(k, windowMs, "NX").exec()) as unknown as [
-      number,
-    ];
+    const [count] = (await this.bounded(
+      this.client.multi().incr(k).pExpire(k, windowMs, "NX").exec(),
+    )) as unknown as [number];
     return count <= limit;
   }
 
   async ready(): Promise<boolean> {
     try {
-      return this.client.isReady && (await this.client.ping()) === "PONG";
+      return this.client.isReady && (await this.bounded(this.client.ping())) === "PONG";
     } catch {
       return false;
     }
   }
 
+  /** Quits politely within a second; a hung Redis is then disconnected, so shutdown always ends. */
   async close(): Promise<void> {
-    try {
-      if (this.client.isOpen) await this.client.quit();
-    } catch {
-      this.client.destroy();
-    }
+    if (!this.client.isOpen) return;
+    let timer: NodeJS.Timeout | undefined;
+    const quit = this.client.quit().then(
+      () => true,
+      () => false,
+    );
+    const done = await Promise.race([
+      quit,
+      new Promise<boolean>((r) => (timer = setTimeout(() => r(false), 1000))),
+    ]);
+    clearTimeout(timer);
+    if (!done && this.client.isOpen) this.client.destroy();
   }
 }
 

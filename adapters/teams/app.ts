@@ -182,16 +182,19 @@ export function createTeamsAdapter({
           .writeHead(invoke?.status ?? 200, { "content-type": "application/json" })
           .end(invoke?.body === undefined ? undefined : JSON.stringify(invoke.body));
       } catch (error) {
-        const status =
-          (error as { statusCode?: unknown }).statusCode === 401 || errorCode(error) === "AuthenticationError"
-            ? 401
-            : 500;
-        log(status === 401 ? "warn" : "error", "teams.refused", {
+        // What reaches here failed before Solute's turn ran: authentication, or the signing keys
+        // that check it (unreachable login metadata). Never 500: 401 for a bad token, 503 while
+        // the keys cannot be fetched.
+        const unauthorised =
+          (error as { statusCode?: unknown }).statusCode === 401 ||
+          errorCode(error) === "AuthenticationError";
+        const status = unauthorised ? 401 : 503;
+        log("warn", unauthorised ? "teams.refused" : "teams.auth-keys-unavailable", {
           platform: "teams",
           code: errorCode(error),
           status,
         });
-        if (!res.headersSent) res.writeHead(status).end();
+        if (!res.headersSent) res.writeHead(status, status === 503 ? { "retry-after": "10" } : {}).end();
       }
     },
   };

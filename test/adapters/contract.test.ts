@@ -48,6 +48,7 @@ beforeAll(async () => {
   const config = loadConfig({ ...env, SLACK_API_URL: `${api.url}/api/` });
   const bot = new Conversation(new MemoryStore(), config);
   slack = createSlackAdapter({ config: config.slack!, bot });
+  await slack.start();
   const teams = createTeamsAdapter({ config: config.teams!, bot });
   server = await startServer({
     port: 0,
@@ -85,7 +86,11 @@ async function viaTerminal(text: string, working = false): Promise<string> {
 
 /** What a person sees in Slack's blocks: their texts, unescaped. */
 const slackText = (blocks: unknown) =>
-  JSON.stringify(blocks).replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&").replace(/∗/g, "*");
+  JSON.stringify(blocks)
+    .replace(/&lt;/g, "<")
+    .replace(/&gt;/g, ">")
+    .replace(/&amp;/g, "&")
+    .replace(/∗/g, "*");
 
 async function viaSlack(text: string, n: number): Promise<string> {
   const base = fixture("slash-commands-slack.json").slashCommandWithArgs;

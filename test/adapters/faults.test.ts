@@ -31,6 +31,7 @@ async function slackStack(): Promise<{ api: FakeSlack; url: string }> {
     config: config.slack!,
     bot: new Conversation(new MemoryStore(), config),
   });
+  await adapter.start();
   const server: HttpServer = await startServer({
     port: 0,
     host: "127.0.0.1",

@@ -13,6 +13,8 @@ export interface TestRedis {
   owned: boolean;
   stop(): Promise<void>;
   restart(): Promise<void>;
+  /** Sends a signal to the server (SIGSTOP freezes it, SIGCONT thaws it); owned servers only. */
+  signal(name: NodeJS.Signals): void;
   /** Every key and its value(s), for privacy scans. */
   dump(): Promise<string>;
   flush(): Promise<void>;
@@ -97,6 +99,9 @@ export async function startRedis(): Promise<TestRedis> {
     url,
     owned: !external,
     stop,
+    signal: (name) => {
+      child?.kill(name);
+    },
     restart: async () => {
       await stop();
       await launch();

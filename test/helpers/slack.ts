@@ -16,8 +16,8 @@ export interface FakeSlack {
   calls: Call[];
   /** Extra handlers by API method, e.g. "apps.connections.open". */
   methods: Record<string, () => Record<string, unknown>>;
-  /** Answer the next N calls to a path with this status. */
-  failNext(path: string, status: number, times?: number): void;
+  /** Answer the next N calls to a path with this status (and Retry-After: 0, unless `noRetryAfter`). */
+  failNext(path: string, status: number, times?: number, noRetryAfter?: boolean): void;
   waitFor(predicate: (calls: Call[]) => boolean, timeoutMs?: number): Promise<Call[]>;
   close(): Promise<void>;
 }
@@ -26,7 +26,7 @@ export const BOT_USER_ID = "U00FAKEBOT01";
 
 export async function fakeSlack(): Promise<FakeSlack> {
   const calls: Call[] = [];
-  const failures = new Map<string, { status: number; times: number }>();
+  const failures = new Map<string, { status: number; times: number; noRetryAfter?: boolean }>();
   const methods: FakeSlack["methods"] = {};
   const server: Server = createServer((req, res) => {
     let raw = "";
@@ -49,7 +49,10 @@ export async function fakeSlack(): Promise<FakeSlack> {
       if (fail && fail.times > 0) {
         fail.times--;
         res
-          .writeHead(fail.status, { "content-type": "application/json", "retry-after": "0" })
+          .writeHead(fail.status, {
+            "content-type": "application/json",
+            ...(fail.noRetryAfter ? {} : { "retry-after": "0" }),
+          })
           .end('{"ok":false,"error":"fake_failure"}');
         return;
       }
@@ -75,8 +78,8 @@ export async function fakeSlack(): Promise<FakeSlack> {
     url,
     calls,
     methods,
-    failNext(path, status, times = 1) {
-      failures.set(path, { status, times });
+    failNext(path, status, times = 1, noRetryAfter = false) {
+      failures.set(path, { status, times, noRetryAfter });
     },
     async waitFor(predicate, timeoutMs = 5000) {
       const until = Date.now() + timeoutMs;

@@ -26,7 +26,7 @@ let bot: Conversation;
 let url: string;
 
 beforeAll(() => setLogSink(() => {}));
-afterAll(() => setLogSink((l) => process.stderr.write(`${l}\n`)));
+afterAll(() => setLogSink(() => {}));
 
 beforeEach(async () => {
   api = await fakeSlack();
@@ -39,6 +39,7 @@ beforeEach(async () => {
   });
   bot = new Conversation(store, config);
   adapter = createSlackAdapter({ config: config.slack!, bot });
+  await adapter.start();
   server = await startServer({
     port: 0,
     host: "127.0.0.1",

@@ -21,7 +21,7 @@ let store: MemoryStore;
 let url: string;
 
 beforeAll(() => setLogSink((l) => logs.push(l)));
-afterAll(() => setLogSink((l) => process.stderr.write(`${l}\n`)));
+afterAll(() => setLogSink(() => {}));
 
 beforeEach(async () => {
   api = await fakeSlack();
@@ -35,6 +35,7 @@ beforeEach(async () => {
   const bot = new Conversation(store, config);
   // The real Bolt app; it verifies its token with auth.test against the fake API.
   adapter = createSlackAdapter({ config: config.slack!, bot });
+  await adapter.start();
   server = await startServer({
     port: 0,
     host: "127.0.0.1",

@@ -25,7 +25,7 @@ afterEach(async () => {
   for (const c of cleanups.splice(0)) await c();
 });
 afterAll(async () => {
-  setLogSink((l) => process.stderr.write(`${l}\n`));
+  setLogSink(() => {});
   await api.close();
   await redis.stop();
 });
@@ -43,6 +43,7 @@ async function replica(): Promise<{ bot: Conversation; store: RedisStore; url: s
   await store.connect();
   const bot = new Conversation(store, config);
   const slack: SlackAdapter = createSlackAdapter({ config: config.slack!, bot });
+  await slack.start();
   const server: HttpServer = await startServer({
     port: 0,
     host: "127.0.0.1",

@@ -20,7 +20,7 @@ let store: MemoryStore;
 let url: string;
 
 beforeAll(() => setLogSink((l) => logs.push(l)));
-afterAll(() => setLogSink((l) => process.stderr.write(`${l}\n`)));
+afterAll(() => setLogSink(() => {}));
 
 async function start(env: Record<string, string>) {
   const config = loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789", ...env });
