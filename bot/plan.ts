@@ -20,6 +20,7 @@ import { fmt, num, signed } from "../core/format.js";
 import { readPlan } from "../core/plan-reader.js";
 import { readMessage } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
+import { readSeries } from "../core/series.js";
 import type { Context, Conversation } from "./conversation.js";
 import { errorCode, log } from "./log.js";
 import { emptyReply, type Reply } from "./reply.js";
@@ -47,8 +48,18 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
   const reading = readMessage(rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
   const reply = emptyReply("plan", "Fluid plan");
   reply.problems.push(...problems.map(({ code, message }) => ({ code, message })));
-  reply.problems.push(...reading.problems.map(({ code, message }) => ({ code, message })));
-  const na = reading.inputs.sodium;
+  // A series written in the message ("Na 118 at 22:00, 124 at 04:00 …") counts like a logged
+  // one: its last sodium is the plan's own.
+  const series = readSeries(rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
+  const written =
+    series.timed && series.problems.length === 0 && series.points.length >= 2 ? series.points : undefined;
+  const ownProblems = written
+    ? reading.problems.filter((x) => !x.code.startsWith("columns.") && x.code !== "value.conflict")
+    : reading.problems;
+  reply.problems.push(...ownProblems.map(({ code, message }) => ({ code, message })));
+  if (series.timed && !written)
+    reply.problems.push(...series.problems.map(({ code, message }) => ({ code, message })));
+  const na = written ? written.at(-1)!.sodium : reading.inputs.sodium;
   const k = reading.inputs.potassium;
   if (reading.echo) reply.readAs = reading.echo + (reading.tag ? ` — case ${reading.tag}` : "");
 
@@ -114,7 +125,11 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
   let points: SodiumPoint[] = [];
   let firstAt = now;
   let loggedHighRisk = false;
-  if (reading.tag) {
+  if (written) {
+    // Hour 0 is the series' first value; now is its last.
+    points = written.slice(0, -1);
+    firstAt = now - written.at(-1)!.hours * HOUR;
+  } else if (reading.tag) {
     try {
       const episode = episodeOf(await bot.store.listRecords(ctx.channel, now), reading.tag);
       const logged = pointsOf(episode);
@@ -231,7 +246,7 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
     if (trend) {
       const w = trend.windows.find((x) => x.open) ?? trend.windows.at(-1)!;
       reply.interpretation.push(
-        `Logged for ${reading.tag}: ${signed((trend.direction === "lowering" ? -1 : 1) * w.change)} mmol/L so far in hours ${num(w.fromHours)}–${num(w.toHours)} of the episode (limit ${w.limit}).`,
+        `${written ? "In the series written" : `Logged for ${reading.tag}`}: ${signed((trend.direction === "lowering" ? -1 : 1) * w.change)} mmol/L so far in hours ${num(w.fromHours)}–${num(w.toHours)} of the episode (limit ${w.limit}).`,
       );
     }
     const riskText = highRisk

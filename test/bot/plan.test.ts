@@ -161,6 +161,15 @@ describe("the plan command", () => {
     expect(r.data!.trend!.points.map((p) => p.sodium)).toEqual([114, 119]);
   });
 
+  it("counts a series written in the message, its last sodium being the plan's own", async () => {
+    // 110 → 118 in 12 h: +8 already; 500 mL of 0.9% NaCl with TBW 30 L adds about +0.6 [D], within 10.
+    const r = await ask("plan Na 110 at 20:00, 118 at 08:00 TBW 30 L 500 mL 0.9% NaCl");
+    expect(r.interpretation.join(" ")).toMatch(/In the series written: \+8\.0 mmol\/L so far in hours 0–24/);
+    expect(r.data!.trend!.points.map((p) => p.sodium)).toEqual([110, 118]);
+    const fast = await ask("plan Na 110 at 20:00, 119 at 08:00 TBW 30 L 1 L 3% NaCl");
+    expect(fast.headline).toMatch(/^Too fast/);
+  });
+
   it("counts its own sodium when it is newer than the log", async () => {
     await ask("bed 5 Na 114");
     now += 10 * 3_600_000;
