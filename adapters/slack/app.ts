@@ -266,13 +266,10 @@ export function createSlackAdapter({
       return undefined;
     }
   };
-  const message = async (reply: Reply, options: { offerPost?: boolean; working?: boolean } = {}) =>
-    render(reply, { ...options, ...(await keepIfButtons(reply, options)) });
-  const keepIfButtons = async (reply: Reply, options: { working?: boolean }) => {
-    const wantsButtons =
-      reply.kind === "forget" || (!options.working && reply.kind !== "help") || reply.shareable;
-    const source = wantsButtons ? await keep(reply) : undefined;
-    return source ? { source } : {};
+  /** A reply in Block Kit; every reply but the help is kept so its buttons can re-render it. */
+  const message = async (reply: Reply, options: { offerPost?: boolean; working?: boolean } = {}) => {
+    const source = reply.kind === "help" ? undefined : await keep(reply);
+    return render(reply, { ...options, ...(source && { source }) });
   };
 
   app.command(config.command, async ({ command, ack, respond }) => {

@@ -150,7 +150,22 @@ export function createTeamsAdapter({
     }
     const message = MessageFactory.attachment(CardFactory.adaptiveCard(renderCard(reply)));
     message.summary = reply.headline;
-    await context.sendActivity(message);
+    try {
+      await context.sendActivity(message);
+    } catch (error) {
+      // The card was refused (after the connector's retries): say so in a plain line, with the
+      // verdict, rather than leave the person with nothing.
+      log("warn", "teams.post-failed", { platform: "teams", code: errorCode(error) });
+      const status = (error as { statusCode?: number }).statusCode ?? 0;
+      // A card the service refused (4xx): the verdict in plain text. A service that is down (5xx)
+      // has had its bounded retries; a second send would only add to them.
+      if (status >= 400 && status < 500)
+        await context.sendActivity(
+          MessageFactory.text(
+            `${reply.headline}. (Solute could not post its full answer here; please send the message again.)`,
+          ),
+        );
+    }
   };
 
   return {

@@ -266,3 +266,13 @@ describe("Teams as its users expect (TEAMS_LOCAL=1)", () => {
     expect(sent!.activity.text).toMatch(/Mention me with lab values/);
   });
 });
+
+describe("a card Teams refuses", () => {
+  beforeEach(() => start({ TEAMS_LOCAL: "1" }));
+  it("is followed by the verdict in plain text, not by silence", async () => {
+    connector.failNext(400, 1);
+    await post(replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl));
+    const sent = await connector.waitFor(1);
+    expect(sent.at(-1)!.activity.text).toMatch(/could not post its full answer/);
+  });
+});
