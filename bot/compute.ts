@@ -8,7 +8,7 @@ import type { Reading } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
 import { checkClaims } from "./check.js";
 import { emptyReply, type Fact, type Reply } from "./reply.js";
-import { keyNumbersOf, verdictOf, visibleCautionsOf, whyOf } from "./summary.js";
+import { keyNumbersOf, verdictFindings, verdictOf, visibleCautionsOf, whyOf } from "./summary.js";
 
 export function factsOf(a: Assessment): Fact[] {
   const r = a.results;
@@ -94,24 +94,28 @@ export function computeReply(reading: Reading, a: Assessment, showWorking: boole
   // Values a lab or an analyser calculated and printed are checked against ours, never used.
   const printed =
     reading.claims.length > 0 ? checkClaims(reading, a).map((v) => `As printed: ${v.text}`) : [];
-  const verdict = verdictOf(a.findings);
+  const said = verdictFindings(a.findings);
+  const verdict = verdictOf(a.findings, said);
   const keyNumbers = keyNumbersOf(a);
-  return {
+  // Assembled by assignment: a conditional spread here is slow on the hot path.
+  const reply: Reply = {
     kind: "result",
     headline: verdict ?? headlineOf(a),
-    ...(keyNumbers && verdict && { keyNumbers }),
     readShort: readShortOf(reading),
-    why: whyOf(a.findings),
+    why: whyOf(a.findings, said),
     visibleCautions: interpreting ? visibleCautionsOf(a.cautionIds) : [],
-    readAs: reading.echo + (reading.tag ? ` — case ${reading.tag}` : ""),
+    readAs: reading.tag ? `${reading.echo} — case ${reading.tag}` : reading.echo,
     facts: factsOf(a),
-    interpretation: sortedFindings(a).map((f) => f.text),
+    // assess() returns its findings sorted, danger first.
+    interpretation: a.findings.map((f) => f.text),
     working: workingOf(a),
     problems: reading.problems.map(({ code, message }) => ({ code, message })),
-    notes: [...printed, ...reading.notes],
+    notes: printed.length > 0 ? [...printed, ...reading.notes] : reading.notes,
     cautions: interpreting ? a.cautions : [],
     shareable: interpreting && reading.identifiers.length === 0,
     showWorking,
     data: { reading, assessment: a },
   };
+  if (keyNumbers && verdict) reply.keyNumbers = keyNumbers;
+  return reply;
 }

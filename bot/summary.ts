@@ -82,8 +82,10 @@ export function verdictFindings(findings: readonly Finding[]): Finding[] {
 }
 
 /** Line 1: what matters most, danger first. */
-export function verdictOf(findings: readonly Finding[]): string | undefined {
-  const used = verdictFindings(findings);
+export function verdictOf(
+  findings: readonly Finding[],
+  used = verdictFindings(findings),
+): string | undefined {
   if (used.length === 0) return undefined;
   const dangers = findings.filter((f) => f.severity === "danger").length;
   const more = dangers > 3 ? `, and ${dangers - 3} more` : "";
@@ -133,8 +135,8 @@ function brief(text: string): string {
 }
 
 /** Up to three lines: why, and the next step — what the verdict line has not said already. */
-export function whyOf(findings: readonly Finding[]): string[] {
-  const used = new Set(verdictFindings(findings));
+export function whyOf(findings: readonly Finding[], said = verdictFindings(findings)): string[] {
+  const used = new Set(said);
   const worth = findings.filter(
     (f) =>
       !(used.has(f) && SAID_BY_VERDICT.has(f.code)) &&

@@ -208,7 +208,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
           for (let i = start; i < end; i++) if (maskedChars[i]) return true;
           return false;
         };
-  const identifiers = [...new Set(hits.map((h) => h.kind))];
+  const identifiers = hits.length === 0 ? [] : [...new Set(hits.map((h) => h.kind))];
   if (identifiers.length > 0) {
     problems.push({
       code: "privacy.identifier",
@@ -443,17 +443,18 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   for (const v of merged) inputs[v.key] = v.canonical;
   if (notUsed.size > 0) notes.push(`Not used in these calculations: ${listOf([...notUsed])}.`);
 
-  return {
+  const reading: Reading = {
     inputs,
     problems: capped(problems),
     values: merged,
     claims,
-    ...(tag !== undefined && { tag }),
     notes: notes.length === 0 ? notes : [...new Set(notes)].slice(0, MAX_PER_CODE * 3),
     echo: echoOf(merged),
     identifiers,
-    notUsed: [...notUsed],
+    notUsed: notUsed.size === 0 ? [] : [...notUsed],
   };
+  if (tag !== undefined) reading.tag = tag;
+  return reading;
 }
 
 const CLAIM_NAMES: Record<ClaimKind, string> = {
@@ -908,7 +909,8 @@ function readValue(
   }
   if (resolved.unit === "mOsm/L")
     notes.push("Osmolality written per litre is read as mOsm/kg, as osmometers report it.");
-  return {
+  // Assembled by assignment: conditional spreads are slow on this path (see docs/benchmarks.md).
+  const value: ReadValue = {
     key,
     analyte: analyte.id,
     written: result.value,
@@ -916,13 +918,14 @@ function readValue(
     unitSource: resolved.source,
     canonical,
     specimen,
-    ...(cell.flags[0] && { flag: cell.flags[0] }),
-    ...(range && { labRange: range }),
-    ...(result.below && { below: true as const }),
     line,
     start: cell.start,
     end: cell.end,
   };
+  if (cell.flags.length > 0) value.flag = cell.flags[0]!;
+  if (range) value.labRange = range;
+  if (result.below) value.below = true;
+  return value;
 }
 
 const unitText = (unit: Unit) => (unit === "pH" ? "" : `${unit} `);
@@ -976,6 +979,7 @@ const MAX_PER_CODE = 3;
 
 /** At most a few problems of each kind, then one line that counts the rest. */
 function capped(problems: Problem[]): Problem[] {
+  if (problems.length <= MAX_PER_CODE) return problems;
   const seen = new Map<string, number>();
   const out: Problem[] = [];
   for (const p of problems) {
@@ -1066,8 +1070,10 @@ function mergeDuplicates(values: ReadValue[], problems: Problem[]): ReadValue[] 
       message: `${capitalise(name)} given more than once with different values (${shown.join(", ")}): none of them was used. Send the one to calculate with.${extra}`,
     });
   }
-  return kept.sort((a, b) => INPUT_KEYS.indexOf(a.key) - INPUT_KEYS.indexOf(b.key));
+  return kept.length < 2 ? kept : kept.sort((a, b) => KEY_ORDER[a.key] - KEY_ORDER[b.key]);
 }
+
+const KEY_ORDER = Object.fromEntries(INPUT_KEYS.map((k, i) => [k, i])) as Record<InputKey, number>;
 
 function echoOf(values: ReadValue[]): string {
   if (values.length === 0) return "";
