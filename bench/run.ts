@@ -96,14 +96,27 @@ async function stop(child: ChildProcess): Promise<void> {
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
+/** A request to send: the same each time, or made fresh for each request. */
+type Shot = { body: string; headers: Record<string, string> };
+
 async function load(
   url: string,
-  body: string,
-  headers: Record<string, string>,
+  shot: Shot | (() => Shot),
 ): Promise<{ rps: number; p99: number; errors: number; non2xx: number }> {
+  const requests =
+    typeof shot === "function"
+      ? [
+          {
+            method: "POST" as const,
+            // autocannon calls this for every request: each one differs (a fresh signature).
+            setupRequest: (req: object) => ({ ...req, ...shot() }),
+          },
+        ]
+      : undefined;
+  const options = typeof shot === "function" ? { requests } : shot;
   // A short warm-up, then the measured run.
-  await autocannon({ url, method: "POST", body, headers, connections: 10, duration: 2 });
-  const r = await autocannon({ url, method: "POST", body, headers, connections: 10, duration: DURATION });
+  await autocannon({ url, method: "POST", ...options, connections: 10, duration: 2 });
+  const r = await autocannon({ url, method: "POST", ...options, connections: 10, duration: DURATION });
   return { rps: r.requests.average, p99: r.latency.p99, errors: r.errors + r.timeouts, non2xx: r.non2xx };
 }
 
@@ -161,21 +174,30 @@ function slackEnv(p: number, connector: string): Record<string, string> {
 
 // --- Slack HTTP path --------------------------------------------------------------------------
 async function slack(connector: string): Promise<void> {
-  const body = new URLSearchParams({
-    command: "/solute",
-    text: "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
-    channel_id: "C0BENCH",
-    user_id: "U0BENCH",
-    team_id: "T0BENCH",
-    response_url: `${connector}/respond`,
-    trigger_id: "t",
-    token: "x",
-  }).toString();
-  const ts = Math.floor(Date.now() / 1000);
-  const headers = {
-    "content-type": "application/x-www-form-urlencoded",
-    "x-slack-request-timestamp": String(ts),
-    "x-slack-signature": `v0=${createHmac("sha256", SIGNING).update(`v0:${ts}:${body}`).digest("hex")}`,
+  // Every request is a new signed command (its own trigger_id and signature), as Slack sends
+  // them: one request repeated would be dropped as a replay and measure nothing.
+  let sent = 0;
+  const shot = (): Shot => {
+    const body = new URLSearchParams({
+      command: "/solute",
+      text: "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
+      channel_id: "C0BENCH",
+      user_id: "U0BENCH",
+      team_id: "T0BENCH",
+      response_url: `${connector}/respond`,
+      trigger_id: `t${++sent}`,
+      token: "x",
+    }).toString();
+    const ts = Math.floor(Date.now() / 1000);
+    const signature = createHmac("sha256", SIGNING).update(`v0:${ts}:${body}`).digest("hex");
+    return {
+      body,
+      headers: {
+        "content-type": "application/x-www-form-urlencoded",
+        "x-slack-request-timestamp": String(ts),
+        "x-slack-signature": `v0=${signature}`,
+      },
+    };
   };
   const env = (p: number) => slackEnv(p, connector);
   // The same answer as Solute gives, for a bare app that only sends it (its size, not its work).
@@ -198,7 +220,7 @@ async function slack(connector: string): Promise<void> {
   for (const [name, script, extra] of runs) {
     const p = port();
     const { child } = await start(process.execPath, [script], { ...env(p), ...extra }, /"event":"ready"/);
-    results[name] = await load(`http://127.0.0.1:${p}/slack/events`, body, headers);
+    results[name] = await load(`http://127.0.0.1:${p}/slack/events`, shot);
     await stop(child);
   }
   const ours = results.ours!;
@@ -222,17 +244,21 @@ async function slack(connector: string): Promise<void> {
 
 // --- Teams path -------------------------------------------------------------------------------
 async function teams(connector: string): Promise<void> {
-  const body = JSON.stringify({
-    type: "message",
-    id: "1",
-    channelId: "msteams",
-    serviceUrl: `${connector}/`,
-    text: "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
-    from: { id: "29:bench" },
-    recipient: { id: "28:bench" },
-    conversation: { id: "a:bench", conversationType: "personal" },
+  // Every activity has its own id, as Teams sends them: a repeated id is dropped as a redelivery.
+  let sent = 0;
+  const shot = (): Shot => ({
+    body: JSON.stringify({
+      type: "message",
+      id: String(++sent),
+      channelId: "msteams",
+      serviceUrl: `${connector}/`,
+      text: "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
+      from: { id: "29:bench" },
+      recipient: { id: "28:bench" },
+      conversation: { id: "a:bench", conversationType: "personal" },
+    }),
+    headers: { "content-type": "application/json" },
   });
-  const headers = { "content-type": "application/json" };
   const results: Record<string, { rps: number; p99: number; errors: number; non2xx: number }> = {};
   for (const [name, script] of [
     ["bare", "bench/bare/echo.mjs"],
@@ -251,7 +277,7 @@ async function teams(connector: string): Promise<void> {
       },
       /"event":"ready"/,
     );
-    results[name] = await load(`http://127.0.0.1:${p}/api/messages`, body, headers);
+    results[name] = await load(`http://127.0.0.1:${p}/api/messages`, shot);
     await stop(child);
   }
   const ratio = results.ours!.rps / results.bare!.rps;
