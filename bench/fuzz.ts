@@ -1,6 +1,6 @@
 /**
- * `npm run fuzz`: drives the reader, the expression sandbox and each adapter's request parsing
- * with generated inputs — a million by default, bounded by a count and a time. Checks that no
+ * `npm run fuzz`: drives the reader, the expression sandbox, each adapter's request parsing and
+ * (in bench/fuzz-http.ts) the HTTP bodies that reach Bolt and botbuilder with generated inputs — a million by default, bounded by a count and a time. Checks that no
  * exception escapes, every answer is either a correct result or a clear problem, and time per
  * input stays bounded. `runFuzz` is also called by the tests with a small count.
  *
@@ -10,6 +10,7 @@ import fc from "fast-check";
 import { cleanText as slackText } from "../adapters/slack/events.js";
 import { channelOf, mentionsBot, cleanText as teamsText } from "../adapters/teams/events.js";
 import { evaluateExpression, normaliseExpression } from "../bot/expression.js";
+import { setLogSink } from "../bot/log.js";
 import { readMessage, renderInputs } from "../core/reader/index.js";
 import { loadUnits } from "../core/units.js";
 
@@ -319,6 +320,15 @@ export async function runFuzz(options: {
     });
   }
   reports.push(adapters);
+  // Over loopback, so far fewer: each is a real request through Bolt or botbuilder.
+  const { runBodyFuzz } = await import("./fuzz-http.js");
+  reports.push(
+    await runBodyFuzz({
+      count: Math.min(20_000, Math.round(options.count * 0.05)),
+      seed: seed + 4,
+      deadline,
+    }),
+  );
   return reports;
 }
 
@@ -329,6 +339,11 @@ function arg(name: string, fallback: number): number {
 
 if (process.argv[1]?.endsWith("fuzz.ts")) {
   const started = Date.now();
+  // Refused bodies are logged one line each: count them here instead of printing thousands.
+  let logLines = 0;
+  setLogSink(() => {
+    logLines++;
+  });
   const reports = await runFuzz({
     count: arg("count", 1_000_000),
     seconds: arg("seconds", 300),
@@ -342,7 +357,7 @@ if (process.argv[1]?.endsWith("fuzz.ts")) {
   }
   const total = reports.reduce((a, r) => a + r.runs, 0);
   process.stdout.write(
-    `${total.toLocaleString("en")} inputs in ${((Date.now() - started) / 1000).toFixed(0)} s\n`,
+    `${total.toLocaleString("en")} inputs in ${((Date.now() - started) / 1000).toFixed(0)} s; ${logLines} log lines\n`,
   );
   process.exitCode = reports.some((r) => r.failures.length > 0) ? 1 : 0;
 }

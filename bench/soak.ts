@@ -1,7 +1,7 @@
 /**
  * `npm run soak`: mixed Slack and Teams traffic at 200 requests/s for 60 s against the production
  * build with Redis, all on 127.0.0.1. Passes when there are zero errors, every Slack request is
- * acknowledged well inside Slack's 3 s, and no injected identifier, message text or platform ID
+ * acknowledged well inside Slack's 3 s, every malformed body mixed in gets 400, and no injected identifier, message text or platform ID
  * shows up in the server's logs or anywhere in Redis. Prints its figures.
  *
  *   npm run soak -- [--seconds 60] [--rate 200]
@@ -21,6 +21,8 @@ export interface SoakReport {
   slackAckMs: { p50: number; p99: number; max: number };
   teamsMs: { p50: number; p99: number; max: number };
   leaks: string[];
+  /** Bodies no platform sends, mixed into the traffic: how many, and how many got their 400. */
+  refused: { sent: number; answered400: number; otherwise: number };
   passed: boolean;
 }
 
@@ -111,9 +113,13 @@ export async function runSoak(options: {
     });
 
     let n = 0;
+    // Every 13th request is a body no platform sends (null, an array, payload=null, an envelope
+    // without a type): each must get 400 while the traffic around it is answered as usual.
+    const refused = { sent: 0, answered400: 0, otherwise: 0 };
     const base = `http://127.0.0.1:${port}`;
+    type Built = { body: string; headers: Record<string, string>; expect?: number };
     /** Half the rate at one endpoint; `build` makes each request's body and headers afresh. */
-    const traffic = (path: string, build: (i: number) => { body: string; headers: Record<string, string> }) =>
+    const traffic = (path: string, build: (i: number) => Built) =>
       autocannon({
         url: `${base}${path}`,
         connections: 8,
@@ -122,13 +128,33 @@ export async function runSoak(options: {
         requests: [
           {
             method: "POST",
-            setupRequest: (req) => {
-              const { body, headers } = build(n++);
-              return { ...req, body, headers: { ...req.headers, ...headers } };
+            setupRequest: (req, context: { expect?: number }) => {
+              const i = n++;
+              const built = i % 13 === 12 ? malformed(path, i) : build(i);
+              context.expect = built.expect;
+              if (built.expect !== undefined) refused.sent++;
+              return { ...req, body: built.body, headers: { ...req.headers, ...built.headers } };
+            },
+            onResponse: (status: number, _body: string, context: { expect?: number }) => {
+              if (context.expect === undefined) return;
+              if (status === context.expect) refused.answered400++;
+              else refused.otherwise++;
             },
           },
         ],
       });
+    const malformed = (path: string, i: number): Built => {
+      const shapes = ["null", "[]", "42", '{"actions":[],"challenge":"x"}'];
+      const raw = shapes[i % shapes.length]!;
+      const form = path === "/slack/events" && i % 2 === 0;
+      const body = form ? `payload=${encodeURIComponent(raw)}` : raw;
+      const type = form ? "application/x-www-form-urlencoded" : "application/json";
+      return {
+        body,
+        headers: { "content-type": type, ...(path === "/slack/events" ? sign(body) : {}) },
+        expect: 400,
+      };
+    };
     const slack = traffic("/slack/events", (i) => {
       let body: string;
       let type: string;
@@ -193,7 +219,8 @@ export async function runSoak(options: {
       "Na 128 ",
     ].filter((x) => seen.includes(x));
     const errors = s.errors + s.timeouts + t.errors + t.timeouts;
-    const non2xx = s.non2xx + t.non2xx;
+    // The refused bodies' 400s are expected; any other non-2xx is not.
+    const non2xx = s.non2xx + t.non2xx - refused.answered400;
     const report: SoakReport = {
       seconds: options.seconds,
       requests: { slack: s.requests.total, teams: t.requests.total },
@@ -202,11 +229,14 @@ export async function runSoak(options: {
       slackAckMs: { p50: s.latency.p50, p99: s.latency.p99, max: s.latency.max },
       teamsMs: { p50: t.latency.p50, p99: t.latency.p99, max: t.latency.max },
       leaks: [...new Set(leaks)],
+      refused: { ...refused },
       passed: false,
     };
     report.passed =
       errors === 0 &&
       non2xx === 0 &&
+      refused.sent > 0 &&
+      refused.otherwise === 0 &&
       report.slackAckMs.max < 1000 &&
       report.leaks.length === 0 &&
       s.requests.total > 0 &&
@@ -236,6 +266,7 @@ if (process.argv[1]?.endsWith("soak.ts")) {
     `soak: ${r.seconds} s at ${arg("rate", 200)} requests/s, Slack and Teams, Redis`,
     `requests: Slack ${r.requests.slack}, Teams ${r.requests.teams}; errors ${r.errors}; non-2xx ${r.non2xx}`,
     `Slack acknowledgement: p50 ${r.slackAckMs.p50} ms, p99 ${r.slackAckMs.p99} ms, max ${r.slackAckMs.max} ms (Slack allows 3000)`,
+    `bodies no platform sends: ${r.refused.sent}, answered 400: ${r.refused.answered400}, otherwise: ${r.refused.otherwise}`,
     `Teams: p50 ${r.teamsMs.p50} ms, p99 ${r.teamsMs.p99} ms, max ${r.teamsMs.max} ms`,
     `identifiers, message text or platform IDs found in logs or Redis: ${r.leaks.length === 0 ? "none" : r.leaks.join(", ")}`,
     r.passed ? "PASSED" : "FAILED",

@@ -14,7 +14,8 @@ describe("fuzzing (fast slice)", () => {
     const reports = await runFuzz({ count: 6000, seconds: 60, seed: 20261201, timeBudgets: false });
     for (const r of reports) {
       expect(r.failures, r.target).toEqual([]);
-      expect(r.runs, r.target).toBeGreaterThan(1000);
+      // HTTP bodies are real requests over loopback: a twentieth of the count.
+      expect(r.runs, r.target).toBeGreaterThan(r.target.startsWith("HTTP") ? 200 : 1000);
     }
   }, 120_000);
 });

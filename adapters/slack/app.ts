@@ -122,20 +122,32 @@ function readBody(req: IncomingMessage, limit: number): Promise<Buffer | undefin
   });
 }
 
-/** Whether a body is the object Slack sends: JSON of an object, or a form whose payload is one. */
+/**
+ * Whether a body has the shape Slack sends: a JSON event envelope (an object with a string
+ * `type`), a form whose `payload` is such an object (buttons, shortcuts), a slash command form
+ * (`command`), or Slack's certificate check (`ssl_check`). Anything else never reaches Bolt,
+ * which otherwise answers some of them with 500 (and Slack would retry).
+ */
 export function plausibleBody(raw: Buffer, contentType: string): boolean {
   const text = raw.toString("utf8");
-  const isObject = (s: string) => {
+  const isEnvelope = (s: string) => {
     try {
       const v = JSON.parse(s) as unknown;
-      return typeof v === "object" && v !== null && !Array.isArray(v);
+      return (
+        typeof v === "object" &&
+        v !== null &&
+        !Array.isArray(v) &&
+        typeof (v as { type?: unknown }).type === "string"
+      );
     } catch {
       return false;
     }
   };
-  if (contentType.includes("json")) return isObject(text);
-  const payload = new URLSearchParams(text).get("payload");
-  return payload === null || isObject(payload);
+  if (contentType.includes("json")) return isEnvelope(text);
+  const form = new URLSearchParams(text);
+  const payload = form.get("payload");
+  if (payload !== null) return isEnvelope(payload);
+  return form.get("command") !== null || form.get("ssl_check") !== null;
 }
 
 export interface SlackOptions {
@@ -177,6 +189,21 @@ export function createSlackAdapter({
         bodyLimit: MAX_BODY_BYTES,
         // Answers that are not acknowledged in time still get a 200, within Slack's 3 seconds.
         processBeforeResponse: false,
+        // Solute's listeners catch their own failures, so what reaches here is Bolt failing on a
+        // body it could not make sense of (an envelope with fields of the wrong shape): that is
+        // the sender's fault, 400, which Slack does not retry; Bolt's own default is 500.
+        processEventErrorHandler: async ({ error, response }) => {
+          if (response.headersSent) return false;
+          const unauthorised = (error as { code?: unknown }).code === "slack_bolt_authorization_error";
+          const status = unauthorised ? 401 : 400;
+          log("warn", "slack.refused", {
+            platform: "slack",
+            code: unauthorised ? "unauthorised" : "unprocessable",
+            status,
+          });
+          response.writeHead(status).end();
+          return true;
+        },
       });
   // Initialised by start(), not in the constructor: a failing auth.test (Slack unreachable, a
   // revoked token, 5xx, 429) is retried with backoff instead of ending the process.

@@ -223,6 +223,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   /** Where words not understood sit, for a one-line message: "after sodium 120". */
   const unclearNear: string[] = [];
   const headers: { line: number; lexemes: Lexeme[] }[] = [];
+  const numberedHeaders: number[] = [];
   const blankLines: number[] = [];
   let section: Specimen | undefined;
   let lineCount = 0;
@@ -316,6 +317,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
         if (specimens.size === 1) section = [...specimens][0];
         else if (specimens.size > 1) section = undefined;
         headers.push({ line: lineNo, lexemes });
+        if (hasNumber) numberedHeaders.push(lineNo);
       } else {
         if (hasNumber) orphanLines.push(lineNo);
         if (unknownWords > 0 || !hasNumber) unclearLines.push(lineNo);
@@ -416,6 +418,8 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     if (value) values.push(value);
   }
 
+  // A message of nothing but numbered headings ("2 T") read nothing: say so, never stay silent.
+  if (cells.length === 0 && orphanLines.length === 0) orphanLines.push(...numberedHeaders);
   if (orphanLines.length > 0) {
     problems.push({
       code: "number.orphan",

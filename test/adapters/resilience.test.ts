@@ -69,6 +69,20 @@ describe("a Slack that cannot authenticate", () => {
 });
 
 describe("bodies that are not what a platform sends", () => {
+  it("Slack: only an envelope with a type, a form with such a payload, a command or ssl_check passes", async () => {
+    const { plausibleBody } = await import("../../adapters/slack/app.js");
+    const json = (s: string) => plausibleBody(Buffer.from(s), "application/json");
+    const form = (s: string) => plausibleBody(Buffer.from(s), "application/x-www-form-urlencoded");
+    expect(json('{"type":"event_callback","event":{}}')).toBe(true);
+    expect(json('{"actions":[],"challenge":"x"}')).toBe(false); // found by npm run fuzz: Bolt said 500
+    expect(json('{"type":3}')).toBe(false);
+    expect(form(`payload=${encodeURIComponent('{"type":"block_actions"}')}`)).toBe(true);
+    expect(form(`payload=${encodeURIComponent("{}")}`)).toBe(false);
+    expect(form("command=%2Fsolute&text=Na+128")).toBe(true);
+    expect(form("ssl_check=1&token=x")).toBe(true);
+    expect(form("text=Na+128")).toBe(false);
+  });
+
   it.each(["null", "[]", "42", '"text"'])(
     "%s → 400 on Slack and Teams, nothing processed, still up",
     async (body) => {

@@ -131,6 +131,19 @@ describe("units are never guessed", () => {
 });
 
 describe("problems, never silent", () => {
+  it("a message of only a numbered heading says its number was not used (found by npm run fuzz)", () => {
+    for (const text of ["2 T", "5 t", "3 total"]) {
+      const r = readMessage(text);
+      expect(r.inputs, text).toEqual({});
+      expect(
+        r.problems.map((p) => p.code),
+        text,
+      ).toContain("number.orphan");
+    }
+    // A numbered heading above real rows stays a heading.
+    expect(readMessage("1. Chemistry\nNa 140").problems).toEqual([]);
+  });
+
   it("refuses implausible values with the range in the unit written", () => {
     // REFERENCES.md §6 [P]: typo guard Na 90–200.
     const r = readMessage("Na 1280 K 4");
