@@ -5,13 +5,8 @@
  * must get an answer that is not a server error, and the server must still answer afterwards.
  */
 import fc from "fast-check";
-import { createSlackAdapter } from "../adapters/slack/app.js";
-import { MemoryStore } from "../adapters/store/memory.js";
-import { createTeamsAdapter } from "../adapters/teams/app.js";
-import { loadConfig } from "../bot/config.js";
-import { Conversation } from "../bot/conversation.js";
-import { startServer } from "../bot/server.js";
-import { fakeSlack, sign } from "../test/helpers/slack.js";
+import { sign } from "../test/helpers/slack.js";
+import { startStack } from "../test/helpers/stack.js";
 import type { FuzzReport } from "./fuzz.js";
 
 const SIGNING = "fuzz-signing-secret";
@@ -102,27 +97,12 @@ export async function runBodyFuzz(options: {
   deadline: number;
 }): Promise<FuzzReport> {
   const report: FuzzReport = { target: "HTTP bodies (Slack, Teams)", runs: 0, failures: [], maxMs: 0 };
-  const api = await fakeSlack();
-  const config = loadConfig({
-    SOLUTE_SECRET: "fuzz-secret-0123456789abcdef",
-    SLACK_BOT_TOKEN: "xoxb-fuzz",
-    SLACK_SIGNING_SECRET: SIGNING,
-    SLACK_API_URL: `${api.url}/api/`,
-    TEAMS_LOCAL: "1",
-    SOLUTE_RATE_LIMIT: "100000",
+  const stack = await startStack({
+    signing: SIGNING,
+    teams: true,
+    env: { SOLUTE_SECRET: "fuzz-secret-0123456789abcdef", SOLUTE_RATE_LIMIT: "100000" },
   });
-  const store = new MemoryStore();
-  const bot = new Conversation(store, config);
-  const slack = createSlackAdapter({ config: config.slack!, bot });
-  await slack.start();
-  const teams = createTeamsAdapter({ config: config.teams!, bot });
-  const server = await startServer({
-    port: 0,
-    host: "127.0.0.1",
-    routes: { "/slack/events": slack.handler!, "/api/messages": teams.handler },
-    store,
-  });
-  const base = `http://127.0.0.1:${server.port}`;
+  const { api, base } = stack;
   try {
     // The fake Slack API stands in for the connector too: it accepts any POST.
     for (const b of fc.sample(bodies(`${api.url}/teams/`), { numRuns: options.count, seed: options.seed })) {
@@ -145,9 +125,7 @@ export async function runBodyFuzz(options: {
     const health = await fetch(`${base}/healthz`);
     if (health.status !== 200) report.failures.push(`/healthz answered ${health.status} afterwards`);
   } finally {
-    await server.close();
-    await slack.stop();
-    await api.close();
+    await stack.close();
   }
   return report;
 }

@@ -1,15 +1,15 @@
 /** Faults at the edges: the platforms' APIs answering 429 or 5xx, bad requests, and SIGTERM. */
 import { spawn } from "node:child_process";
 import { afterEach, describe, expect, it } from "vitest";
-import { createSlackAdapter, type SlackAdapter } from "../../adapters/slack/app.js";
 import { MemoryStore } from "../../adapters/store/memory.js";
 import { createTeamsAdapter } from "../../adapters/teams/app.js";
 import { loadConfig } from "../../bot/config.js";
 import { Conversation } from "../../bot/conversation.js";
-import { type HttpServer, startServer } from "../../bot/server.js";
+import { startServer } from "../../bot/server.js";
 import { fixture } from "../helpers/fixtures.js";
-import { BOT_USER_ID, type FakeSlack, fakeSlack, postSigned } from "../helpers/slack.js";
+import { BOT_USER_ID, type FakeSlack, postSigned } from "../helpers/slack.js";
 import { cleanEnv, ROOT } from "../helpers/spawn.js";
+import { startStack } from "../helpers/stack.js";
 import { type FakeConnector, fakeConnector, replay } from "../helpers/teams.js";
 
 const SIGNING = "faults-signing-secret";
@@ -20,29 +20,9 @@ afterEach(async () => {
 });
 
 async function slackStack(): Promise<{ api: FakeSlack; url: string }> {
-  const api = await fakeSlack();
-  const config = loadConfig({
-    SOLUTE_SECRET: "solute-secret-0123456789",
-    SLACK_BOT_TOKEN: "xoxb-test",
-    SLACK_SIGNING_SECRET: SIGNING,
-    SLACK_API_URL: `${api.url}/api/`,
-  });
-  const adapter: SlackAdapter = createSlackAdapter({
-    config: config.slack!,
-    bot: new Conversation(new MemoryStore(), config),
-  });
-  await adapter.start();
-  const server: HttpServer = await startServer({
-    port: 0,
-    host: "127.0.0.1",
-    routes: { "/slack/events": adapter.handler! },
-    store: new MemoryStore(),
-  });
-  cleanups.push(async () => {
-    await server.close();
-    await api.close();
-  });
-  return { api, url: `http://127.0.0.1:${server.port}/slack/events` };
+  const { api, base, close } = await startStack({ signing: SIGNING });
+  cleanups.push(close);
+  return { api, url: `${base}/slack/events` };
 }
 
 function mention(id: string) {

@@ -7,13 +7,13 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { createSlackAdapter } from "../../adapters/slack/app.js";
 import { MemoryStore } from "../../adapters/store/memory.js";
 import { RedisStore } from "../../adapters/store/redis.js";
-import { createTeamsAdapter } from "../../adapters/teams/app.js";
 import { loadConfig } from "../../bot/config.js";
 import { Conversation } from "../../bot/conversation.js";
 import { type HttpServer, startServer } from "../../bot/server.js";
 import { startRedis, type TestRedis } from "../helpers/redis.js";
 import { fakeSlack, postSigned } from "../helpers/slack.js";
 import { cleanEnv, run } from "../helpers/spawn.js";
+import { startStack } from "../helpers/stack.js";
 
 const SIGNING = "slack-signing-secret-for-tests";
 const cleanups: (() => Promise<void>)[] = [];
@@ -86,31 +86,8 @@ describe("bodies that are not what a platform sends", () => {
   it.each(["null", "[]", "42", '"text"'])(
     "%s → 400 on Slack and Teams, nothing processed, still up",
     async (body) => {
-      const api = await fakeSlack();
-      const config = loadConfig({
-        SOLUTE_SECRET: "solute-secret-0123456789",
-        SLACK_BOT_TOKEN: "xoxb-test",
-        SLACK_SIGNING_SECRET: SIGNING,
-        SLACK_API_URL: `${api.url}/api/`,
-        TEAMS_LOCAL: "1",
-      });
-      const store = new MemoryStore();
-      const bot = new Conversation(store, config);
-      const slack = createSlackAdapter({ config: config.slack!, bot });
-      await slack.start();
-      const teams = createTeamsAdapter({ config: config.teams!, bot });
-      const server = await startServer({
-        port: 0,
-        host: "127.0.0.1",
-        routes: { "/slack/events": slack.handler!, "/api/messages": teams.handler },
-        store,
-      });
-      cleanups.push(async () => {
-        await server.close();
-        await slack.stop();
-        await api.close();
-      });
-      const base = `http://127.0.0.1:${server.port}`;
+      const { api, base, close } = await startStack({ signing: SIGNING, teams: true });
+      cleanups.push(close);
       expect((await postSigned(`${base}/slack/events`, SIGNING, body, "application/json")).status).toBe(400);
       const payload = `payload=${encodeURIComponent(body)}`;
       expect(
@@ -252,27 +229,8 @@ describe("rate limits", () => {
   });
 
   it("through the real client: a mention answered after a 429 without Retry-After", async () => {
-    const api = await fakeSlack();
-    const config = loadConfig({
-      SOLUTE_SECRET: "solute-secret-0123456789",
-      SLACK_BOT_TOKEN: "xoxb-test",
-      SLACK_SIGNING_SECRET: SIGNING,
-      SLACK_API_URL: `${api.url}/api/`,
-    });
-    const store = new MemoryStore();
-    const slack = createSlackAdapter({ config: config.slack!, bot: new Conversation(store, config) });
-    await slack.start();
-    const server = await startServer({
-      port: 0,
-      host: "127.0.0.1",
-      routes: { "/slack/events": slack.handler! },
-      store,
-    });
-    cleanups.push(async () => {
-      await server.close();
-      await slack.stop();
-      await api.close();
-    });
+    const { api, base, close } = await startStack({ signing: SIGNING });
+    cleanups.push(close);
     api.failNext("/api/chat.postMessage", 429, 1, true);
     const { fixture } = await import("../helpers/fixtures.js");
     const recorded = fixture("channel-mention-slack.json").mention;
@@ -285,7 +243,7 @@ describe("rate limits", () => {
         text: "<@U00FAKEBOT01> Na 128 glu 6 mmol/L urea 4 mmol/L",
       },
     });
-    await postSigned(`http://127.0.0.1:${server.port}/slack/events`, SIGNING, body, "application/json");
+    await postSigned(`${base}/slack/events`, SIGNING, body, "application/json");
     await api.waitFor((c) => c.filter((x) => x.path === "/api/chat.postMessage").length === 2, 10_000);
   });
 });
