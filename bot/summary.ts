@@ -49,7 +49,10 @@ export function shortOf(f: Finding): string {
   return clause.charAt(0).toLowerCase() + clause.slice(1);
 }
 
-const capitalise = (t: string) => (/^[a-z]/.test(t) ? t.charAt(0).toUpperCase() + t.slice(1) : t);
+const capitalise = (t: string) => {
+  const c = t.charCodeAt(0);
+  return c >= 97 && c <= 122 ? t.charAt(0).toUpperCase() + t.slice(1) : t;
+};
 
 /** The main finding when there is no danger, in this order of weight. */
 const MAIN_ORDER = [

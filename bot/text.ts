@@ -25,7 +25,21 @@ export const FIRST_VIEW = { lines: 10, characters: 700 } as const;
 
 /** Typography for reading: true minus signs before numbers. */
 export function typeset(text: string): string {
-  return text.replace(/(^|[\s(/])-(?=\d)/g, "$1−");
+  // A scan for "-" rather than a regular expression with a look-ahead: this runs on every reply.
+  let at = text.indexOf("-");
+  if (at < 0) return text;
+  let out = "";
+  let from = 0;
+  while (at >= 0) {
+    const before = at === 0 ? " " : text[at - 1]!;
+    const after = text.charCodeAt(at + 1);
+    if (after >= 48 && after <= 57 && (before === "(" || before === "/" || /\s/.test(before))) {
+      out += `${text.slice(from, at)}−`;
+      from = at + 1;
+    }
+    at = text.indexOf("-", at + 1);
+  }
+  return out + text.slice(from);
 }
 
 /** The why lines that fit the first view beside the problems. */

@@ -20,10 +20,10 @@ const ORDER: Record<Severity, number> = { danger: 0, warning: 1, info: 2 };
 
 /** Danger first, then warnings, then information; stable within a severity. */
 export function sortFindings(findings: readonly Finding[]): Finding[] {
-  return findings
-    .map((f, i) => [f, i] as const)
-    .sort((a, b) => ORDER[a[0].severity] - ORDER[b[0].severity] || a[1] - b[1])
-    .map(([f]) => f);
+  // Array.prototype.sort is stable (ES2019): findings of one severity keep their order.
+  return findings.length < 2
+    ? [...findings]
+    : [...findings].sort((a, b) => ORDER[a.severity] - ORDER[b.severity]);
 }
 
 /** Pairs of codes that contradict each other: no reply may carry both. */

@@ -6,27 +6,26 @@
  */
 const POW = [1, 10, 100, 1000, 10000, 100000, 1000000];
 
-function scaled(value: number, decimals: number): { negative: boolean; n: number; f: number } {
-  const f = POW[decimals] ?? 10 ** decimals;
-  const n = Math.round(Math.abs(value) * f);
-  return { negative: value < 0 && n !== 0, n, f };
-}
-
 /** Exactly `decimals` places: fmt(286, 1) → "286.0"; fmt(-0.04, 1) → "0.0". */
 export function fmt(value: number, decimals = 1): string {
   if (!Number.isFinite(value)) return String(value);
-  const { negative, n, f } = scaled(value, decimals);
-  if (decimals === 0) return `${negative ? "-" : ""}${n}`;
+  const f = POW[decimals] ?? 10 ** decimals;
+  const n = Math.round(Math.abs(value) * f);
+  const sign = value < 0 && n !== 0 ? "-" : "";
+  if (decimals === 0) return `${sign}${n}`;
   const whole = Math.floor(n / f);
   const frac = String(n - whole * f).padStart(decimals, "0");
-  return `${negative ? "-" : ""}${whole}.${frac}`;
+  return `${sign}${whole}.${frac}`;
 }
 
 /** Up to `decimals` places, trailing zeros dropped: 128 → "128", 29.9734 → "29.97". */
 export function num(value: number, decimals = 2): string {
   if (!Number.isFinite(value)) return String(value);
-  const { negative, n, f } = scaled(value, decimals);
-  return `${negative ? "-" : ""}${n / f}`;
+  // Whole numbers (most lab values) need no rounding; "-0" is shown as "0".
+  if (Number.isInteger(value) && Math.abs(value) < 1e9) return value === 0 ? "0" : String(value);
+  const f = POW[decimals] ?? 10 ** decimals;
+  const n = Math.round(Math.abs(value) * f);
+  return value < 0 && n !== 0 ? `-${n / f}` : `${n / f}`;
 }
 
 /** A signed difference: "+3.2", "−1.0" (true minus sign for legibility). */

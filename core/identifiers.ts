@@ -200,10 +200,18 @@ export function findIdentifiers(
     }
     // Most tokens are plain words or plain numbers: only those with a digit, "@" or "." can be
     // any of the single-token identifiers below.
-    const digit = /\d/.test(text);
-    const dotted = text.includes(".");
-    if (!digit && !dotted && !text.includes("@")) {
-      // nothing to check alone; the multi-token checks follow
+    // One scan says whether the token has a digit and whether it is nothing but digits.
+    let digit = false;
+    let allDigits = text.length > 0;
+    for (let k = 0; k < text.length; k++) {
+      const c = text.charCodeAt(k);
+      if (c >= 48 && c <= 57) digit = true;
+      else allDigits = false;
+    }
+    const dotted = !allDigits && text.includes(".");
+    if (allDigits ? text.length < 6 : !digit && !dotted && !text.includes("@")) {
+      // nothing to check alone (a short run of digits is no identifier by itself); the
+      // multi-token checks follow
     } else if (text.includes("@") && EMAIL.test(text)) hit("email", i);
     else if (dotted && URL_LIKE.test(text)) hit("url", i);
     else if (!digit) {
@@ -226,7 +234,7 @@ export function findIdentifiers(
     }
 
     // Runs of digit groups: "943 476 5919", "07700 900123", "555 123 4567".
-    if (digit && text.length >= 2 && text.length <= 5 && DIGITS.test(text)) {
+    if (allDigits && text.length >= 2 && text.length <= 5) {
       let j = i;
       let digits = text;
       while (
@@ -301,7 +309,7 @@ export function findIdentifiers(
     }
 
     // Ages over 89: "92 yo", "aged 93", "94 years old".
-    if (digit && /^\d{2,3}$/.test(text) && Number(text) >= 90 && Number(text) < 130) {
+    if (allDigits && text.length >= 2 && text.length <= 3 && Number(text) >= 90 && Number(text) < 130) {
       const next = lower[i + 1];
       const prev = lower[i - 1];
       if ((next !== undefined && AGE_WORDS.has(next)) || (prev !== undefined && AGE_LEADS.has(prev))) {

@@ -37,6 +37,10 @@ const SEPARATORS = new Set([
   "\u2029",
 ]);
 
+/** Separators below U+0080 by character code, for the scan below. */
+const ASCII_SEPARATOR = new Uint8Array(128);
+for (const c of SEPARATORS) if (c.charCodeAt(0) < 128) ASCII_SEPARATOR[c.charCodeAt(0)] = 1;
+
 function isDigit(c: string | undefined): boolean {
   return c !== undefined && c >= "0" && c <= "9";
 }
@@ -45,6 +49,11 @@ export function tokenize(text: string): Token[] {
   const tokens: Token[] = [];
   let start = -1;
   for (let i = 0; i <= text.length; i++) {
+    const code = i < text.length ? text.charCodeAt(i) : -1;
+    if (code >= 0 && code < 128 && ASCII_SEPARATOR[code] === 0) {
+      if (start < 0) start = i;
+      continue;
+    }
     const c = text[i];
     let separator = c === undefined || SEPARATORS.has(c) || (c > "\u007f" && /\s/.test(c));
     if (separator && (c === "," || c === ":") && isDigit(text[i - 1]) && isDigit(text[i + 1]) && start >= 0) {

@@ -75,9 +75,34 @@ const RANGE = /^([<>]?)(-?\d{1,6}(?:[.,]\d{1,6})?)-(-?\d{1,6}(?:[.,]\d{1,6})?)$/
 const TIME = /^([01]?\d|2[0-3])[:h]([0-5]\d)(?::[0-5]\d)?$/i;
 const NUMBER_THEN_REST = /^([<>≤≥]?\d{1,6}(?:[.,]\d{1,20})?)([^\d.,].*)$/;
 
-const toNumber = (s: string) => Number(s.replace(",", "."));
+const toNumber = (s: string) => Number(s.includes(",") ? s.replace(",", ".") : s);
+
+/** "128", "5.2": the usual value, read without the regular expression below. */
+function plainNumber(text: string): boolean {
+  if (text.length > 12) return false;
+  let dot = -1;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 46 && dot < 0 && i > 0 && i < text.length - 1) dot = i;
+    else if (c < 48 || c > 57) return false;
+  }
+  return dot < 0 ? text.length <= 6 : dot <= 6;
+}
 
 function numberLexeme(text: string, place: Place): Lexeme | undefined {
+  if (plainNumber(text)) {
+    const value = Number(text);
+    return {
+      kind: "number",
+      text,
+      value,
+      below: false,
+      above: false,
+      ambiguous: false,
+      start: place.start,
+      end: place.end,
+    };
+  }
   const m = NUMBER.exec(text);
   if (!m) return undefined;
   const body = m[3]!;

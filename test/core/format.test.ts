@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { typeset } from "../../bot/text.js";
 import { fmt, num, signed } from "../../core/format.js";
 
 describe("number formatting", () => {
@@ -17,6 +18,22 @@ describe("number formatting", () => {
     expect(num(29.974022513821)).toBe("29.97");
     expect(num(-0.001)).toBe("0");
     expect(num(9.9950024987506)).toBe("10");
+    expect(num(-0)).toBe("0");
+    expect(num(-3)).toBe("-3");
+    expect(num(12_345_678_901)).toBe("12345678901");
+  });
+  it("true minus signs before numbers, nowhere else", () => {
+    expect(typeset("-5 at the start, gap -3.2 (-4) a/-1")).toBe("−5 at the start, gap −3.2 (−4) a/−1");
+    expect(typeset("3-5 mmol/L, bed 4-B, x- 2, well-known, -")).toBe("3-5 mmol/L, bed 4-B, x- 2, well-known, -");
+    expect(typeset("line\n-7")).toBe("line\n−7");
+  });
+  it("typeset agrees with the plain rule on any text (property)", () => {
+    const rule = (t: string) => t.replace(/(^|[\s(/])-(?=\d)/g, "$1−");
+    fc.assert(
+      fc.property(fc.stringMatching(/^[-( /a1\n\t]{0,30}$/), (t) => {
+        expect(typeset(t)).toBe(rule(t));
+      }),
+    );
   });
   it("signed", () => {
     expect(signed(13.0)).toBe("+13.0");
