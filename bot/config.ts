@@ -67,6 +67,15 @@ const EnvSchema = z.object({
   MicrosoftAppType: z.enum(["MultiTenant", "SingleTenant", "UserAssignedMSI"]).optional(),
   MicrosoftAppTenantId: z.string().optional(),
   TEAMS_LOCAL: flag,
+  // Where the Bot Framework publishes the keys that sign requests to the bot. The public cloud's
+  // by default; set for a sovereign cloud, or a local key set in tests (http only on loopback).
+  TEAMS_OPENID_METADATA_URL: z
+    .string()
+    .regex(
+      /^(https:\/\/[^\s/]+|http:\/\/(127\.0\.0\.1|localhost|\[::1\])(:\d+)?)\/[^\s]*$/,
+      "must be an https:// URL (http:// only for 127.0.0.1)",
+    )
+    .optional(),
 });
 
 export interface SlackConfig {
@@ -84,6 +93,8 @@ export interface TeamsConfig {
   tenantId?: string;
   /** Authentication off, for trying it locally. Refused in production. */
   local: boolean;
+  /** Where the signing keys of requests from the channel are published (default: public cloud). */
+  openIdMetadataUrl?: string;
 }
 
 export interface Config {
@@ -165,6 +176,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
       ...(e.MicrosoftAppPassword && { appPassword: e.MicrosoftAppPassword }),
       ...(e.MicrosoftAppType && { appType: e.MicrosoftAppType }),
       ...(e.MicrosoftAppTenantId && { tenantId: e.MicrosoftAppTenantId }),
+      ...(e.TEAMS_OPENID_METADATA_URL && { openIdMetadataUrl: e.TEAMS_OPENID_METADATA_URL }),
     };
   }
 

@@ -13,12 +13,14 @@ import type { IncomingMessage, ServerResponse } from "node:http";
 import {
   type Activity,
   ActivityTypes,
+  CallerIdConstants,
   CardFactory,
   CloudAdapter,
   ConfigurationBotFrameworkAuthentication,
   MessageFactory,
   type TurnContext,
 } from "botbuilder";
+import { AuthenticationConstants } from "botframework-connector";
 import type { TeamsConfig } from "../../bot/config.js";
 import type { Conversation } from "../../bot/conversation.js";
 import { errorCode, log } from "../../bot/log.js";
@@ -61,6 +63,38 @@ class QuietCloudAdapter extends CloudAdapter {
   }
 }
 
+/**
+ * The public cloud's settings with the signing keys published elsewhere. botframework-connector
+ * takes one such setting as a full configuration, so every other one is given its default.
+ */
+function publicCloudWithKeysAt(url: string) {
+  return {
+    ValidateAuthority: true,
+    ToChannelFromBotLoginUrl: AuthenticationConstants.ToChannelFromBotLoginUrl,
+    ToChannelFromBotOAuthScope: AuthenticationConstants.ToChannelFromBotOAuthScope,
+    ToBotFromChannelTokenIssuer: AuthenticationConstants.ToBotFromChannelTokenIssuer,
+    OAuthUrl: AuthenticationConstants.OAuthUrl,
+    ToBotFromChannelOpenIdMetadataUrl: url,
+    ToBotFromEmulatorOpenIdMetadataUrl: AuthenticationConstants.ToBotFromEmulatorOpenIdMetadataUrl,
+    CallerId: CallerIdConstants.PublicAzureChannel,
+  };
+}
+
+/** jsonwebtoken's own errors, which botframework-connector passes on as they are. */
+const TOKEN_ERRORS = new Set(["JsonWebTokenError", "TokenExpiredError", "NotBeforeError"]);
+
+/**
+ * Whether authentication failed because of the token (401) rather than because the signing keys
+ * could not be had (503): botframework-connector throws an AuthenticationError with status 401
+ * for a bad token, one with status 500 when the key set could not be loaded, jsonwebtoken's error
+ * for a bad signature, and a network error when the login metadata is unreachable.
+ */
+export function isBadToken(error: unknown): boolean {
+  if (!error || typeof error !== "object") return false;
+  const { statusCode, name } = error as { statusCode?: unknown; name?: unknown };
+  return statusCode === 401 || (typeof name === "string" && TOKEN_ERRORS.has(name));
+}
+
 export function createTeamsAdapter({
   config,
   bot,
@@ -75,6 +109,7 @@ export function createTeamsAdapter({
           ...(config.appPassword && { MicrosoftAppPassword: config.appPassword }),
           ...(config.appType && { MicrosoftAppType: config.appType }),
           ...(config.tenantId && { MicrosoftAppTenantId: config.tenantId }),
+          ...(config.openIdMetadataUrl && publicCloudWithKeysAt(config.openIdMetadataUrl)),
         }
       : {},
   );
@@ -200,9 +235,7 @@ export function createTeamsAdapter({
         // What reaches here failed before Solute's turn ran: authentication, or the signing keys
         // that check it (unreachable login metadata). Never 500: 401 for a bad token, 503 while
         // the keys cannot be fetched.
-        const unauthorised =
-          (error as { statusCode?: unknown }).statusCode === 401 ||
-          errorCode(error) === "AuthenticationError";
+        const unauthorised = isBadToken(error);
         const status = unauthorised ? 401 : 503;
         log("warn", unauthorised ? "teams.refused" : "teams.auth-keys-unavailable", {
           platform: "teams",

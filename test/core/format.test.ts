@@ -24,7 +24,9 @@ describe("number formatting", () => {
   });
   it("true minus signs before numbers, nowhere else", () => {
     expect(typeset("-5 at the start, gap -3.2 (-4) a/-1")).toBe("−5 at the start, gap −3.2 (−4) a/−1");
-    expect(typeset("3-5 mmol/L, bed 4-B, x- 2, well-known, -")).toBe("3-5 mmol/L, bed 4-B, x- 2, well-known, -");
+    expect(typeset("3-5 mmol/L, bed 4-B, x- 2, well-known, -")).toBe(
+      "3-5 mmol/L, bed 4-B, x- 2, well-known, -",
+    );
     expect(typeset("line\n-7")).toBe("line\n−7");
   });
   it("typeset agrees with the plain rule on any text (property)", () => {

@@ -64,4 +64,17 @@ describe("npm start with Teams settings", () => {
     ).toThrow(/MicrosoftAppTenantId/);
     expect(() => loadConfig({ MicrosoftAppType: "Sideways" })).toThrow(/MicrosoftAppType/);
   });
+
+  it("takes the signing keys' address over https, or over http only on loopback", () => {
+    const app = { MicrosoftAppId: "a", MicrosoftAppPassword: "b" };
+    for (const bad of ["http://keys.example/openid", "ftp://keys.example/x", "keys.example", "https://"])
+      expect(() => loadConfig({ ...app, TEAMS_OPENID_METADATA_URL: bad }), bad).toThrow(
+        /TEAMS_OPENID_METADATA_URL/,
+      );
+    for (const good of [
+      "https://login.example.gov/v1/.well-known/openidconfiguration",
+      "http://127.0.0.1:4000/openid",
+    ])
+      expect(loadConfig({ ...app, TEAMS_OPENID_METADATA_URL: good }).teams?.openIdMetadataUrl).toBe(good);
+  });
 });

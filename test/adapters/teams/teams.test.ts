@@ -10,6 +10,7 @@ import { type HttpServer, startServer } from "../../../bot/server.js";
 import { CAUTIONS, SHORT_CAUTIONS } from "../../../core/cautions.js";
 import { cardProblems } from "../../helpers/cards.js";
 import { fixture } from "../../helpers/fixtures.js";
+import { type KeySet, localKeySet } from "../../helpers/keys.js";
 import { type FakeConnector, fakeConnector, replay } from "../../helpers/teams.js";
 
 const PANEL = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
@@ -150,23 +151,82 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
   });
 });
 
-describe("Teams with an app ID (authentication on)", () => {
-  beforeEach(() =>
-    start({
-      MicrosoftAppId: "11111111-2222-3333-4444-555555555555",
-      MicrosoftAppPassword: "not-a-real-password",
-    }),
-  );
+const APP_ID = "11111111-2222-3333-4444-555555555555";
 
-  it("an unsigned request is refused with 401 and nothing is processed", async () => {
+describe("Teams with an app ID (authentication on)", () => {
+  let keys: KeySet;
+  beforeEach(async () => {
+    keys = await localKeySet();
+    await start({
+      MicrosoftAppId: APP_ID,
+      MicrosoftAppPassword: "not-a-real-password",
+      TEAMS_OPENID_METADATA_URL: keys.metadataUrl,
+    });
+  });
+  afterEach(() => keys.close());
+
+  /** A channel message without a mention: the turn runs and, rightly, answers nothing. */
+  const unmentioned = () =>
+    replay(
+      { ...fixture("channel-teams.json").channel_post_action, value: undefined },
+      PANEL,
+      connector.serviceUrl,
+    );
+  const claims = (over: Record<string, unknown> = {}) => ({
+    iss: "https://api.botframework.com",
+    aud: APP_ID,
+    serviceurl: connector.serviceUrl,
+    nbf: Math.floor(Date.now() / 1000) - 60,
+    exp: Math.floor(Date.now() / 1000) + 600,
+    ...over,
+  });
+
+  it("an unsigned or malformed token is refused with 401 and nothing is processed", async () => {
     const res = await post(replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl));
     expect(res.status).toBe(401);
     const forged = await post(replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl), {
       authorization: "Bearer not.a.token",
     });
     expect(forged.status).toBe(401);
-    await new Promise((r) => setTimeout(r, 200));
+    // The response comes after the adapter's turn: nothing was sent by then, so nothing will be.
     expect(connector.sent).toHaveLength(0);
+  });
+
+  it("a token signed with the published key is accepted; one signed otherwise, expired or for another bot is not", async () => {
+    const good = await post(unmentioned(), { authorization: `Bearer ${keys.sign(claims())}` });
+    expect(good.status).toBe(200);
+    for (const [why, token] of [
+      ["another key", keys.signWithOtherKey(claims())],
+      ["expired", keys.sign(claims({ exp: Math.floor(Date.now() / 1000) - 3600 }))],
+      ["another bot", keys.sign(claims({ aud: "99999999-2222-3333-4444-555555555555" }))],
+      ["another service URL", keys.sign(claims({ serviceurl: "https://elsewhere.example/" }))],
+    ] as const) {
+      const res = await post(replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl), {
+        authorization: `Bearer ${token}`,
+      });
+      expect(res.status, why).toBe(401);
+    }
+    expect(connector.sent).toHaveLength(0);
+    expect(logs.filter((l) => l.includes('"teams.refused"')).length).toBeGreaterThanOrEqual(4);
+  });
+
+  it("while the signing keys cannot be fetched, requests are refused with 503 and a clear log line", async () => {
+    for (const outage of ["error", "closed"] as const) {
+      keys.outage = outage;
+      logs.length = 0;
+      const res = await post(unmentioned(), { authorization: `Bearer ${keys.sign(claims())}` });
+      expect(res.status, outage).toBe(503);
+      expect(res.headers.get("retry-after")).toBe("10");
+      expect(
+        logs.some((l) => l.includes('"teams.auth-keys-unavailable"')),
+        outage,
+      ).toBe(true);
+    }
+    expect(connector.sent).toHaveLength(0);
+    // Back up: the same token is accepted.
+    keys.outage = undefined;
+    const res = await post(unmentioned(), { authorization: `Bearer ${keys.sign(claims())}` });
+    expect(res.status).toBe(200);
   });
 });
 
