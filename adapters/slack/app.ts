@@ -133,12 +133,7 @@ export function plausibleBody(raw: Buffer, contentType: string): boolean {
   const isEnvelope = (s: string) => {
     try {
       const v = JSON.parse(s) as unknown;
-      return (
-        typeof v === "object" &&
-        v !== null &&
-        !Array.isArray(v) &&
-        typeof (v as { type?: unknown }).type === "string"
-      );
+      return plausiblePayload(v) && typeof (v as { type?: unknown }).type === "string";
     } catch {
       return false;
     }
@@ -148,6 +143,72 @@ export function plausibleBody(raw: Buffer, contentType: string): boolean {
   const payload = form.get("payload");
   if (payload !== null) return isEnvelope(payload);
   return form.get("command") !== null || form.get("ssl_check") !== null;
+}
+
+/**
+ * Whether a payload Bolt is about to process is what Slack sends: an object with a `type` (an
+ * event envelope, an interaction) or a `command` (a slash command). Socket Mode hands Bolt
+ * whatever an envelope carries, and Bolt throws on null, an array or a number.
+ */
+export function plausiblePayload(body: unknown): boolean {
+  if (!isObject(body)) return false;
+  const { type, command, event } = body as { type?: unknown; command?: unknown; event?: unknown };
+  // An event envelope carries its event, which Bolt and the socket client read the type of.
+  if (type === "event_callback")
+    return isObject(event) && typeof (event as { type?: unknown }).type === "string";
+  return typeof type === "string" || typeof command === "string";
+}
+
+const isObject = (v: unknown): v is object => typeof v === "object" && v !== null && !Array.isArray(v);
+
+/**
+ * In Socket Mode, a frame's payload reaches the socket client before Bolt, and the client itself
+ * throws on an events_api frame without an event. Frames whose payload is not one Slack sends are
+ * acknowledged (Slack then does not send them again) and dropped before the client reads them.
+ */
+function guardSocketFrames(client: SocketModeReceiver["client"]): void {
+  const own = client.listeners("ws_message") as ((data: unknown, isBinary: boolean) => unknown)[];
+  client.removeAllListeners("ws_message");
+  // send() is the client's own acknowledgement (private in its types; @slack/socket-mode 3.x).
+  const ack = (id: string) => (client as unknown as { send(id: string): Promise<void> }).send(id);
+  client.on("ws_message", (data: unknown, isBinary: boolean) => {
+    const refused = refusedFrame(data, isBinary);
+    if (refused === undefined) {
+      for (const listener of own) listener(data, isBinary);
+      return;
+    }
+    log("warn", "slack.refused", { platform: "slack", code: "malformed" });
+    if (refused)
+      ack(refused).catch((error) =>
+        log("warn", "slack.ack-failed", { platform: "slack", code: errorCode(error) }),
+      );
+  });
+}
+
+/** The envelope ID of a frame to refuse ("" when it has none), or undefined for a frame to pass on. */
+function refusedFrame(data: unknown, isBinary: boolean): string | undefined {
+  if (isBinary) return undefined;
+  let frame: unknown;
+  try {
+    frame = JSON.parse(typeof data === "string" ? data : new TextDecoder().decode(data as Uint8Array));
+  } catch {
+    return undefined; // the client ignores what is not JSON
+  }
+  if (!isObject(frame)) return "";
+  const {
+    type,
+    envelope_id: id,
+    payload,
+  } = frame as { type?: unknown; envelope_id?: unknown; payload?: unknown };
+  if (type === "hello" || type === "disconnect") return undefined;
+  if (typeof id !== "string") return "";
+  if (
+    type === "events_api"
+      ? plausiblePayload(payload) && isObject((payload as { event?: unknown }).event)
+      : plausiblePayload(payload)
+  )
+    return undefined;
+  return id;
 }
 
 export interface SlackOptions {
@@ -215,6 +276,16 @@ export function createSlackAdapter({
     deferInitialization: true,
     ...(botUserId && { botUserId, botId: "B0SOLUTE", tokenVerificationEnabled: false }),
   });
+  // Every receiver hands its events to processEvent: a payload that is not one Slack sends is
+  // refused here, before Bolt. Over the socket it is acknowledged, so Slack does not send it
+  // again (Socket Mode's answer to a 400); over HTTP plausibleBody has refused it already.
+  const processEvent = app.processEvent.bind(app);
+  app.processEvent = async (event) => {
+    if (plausiblePayload(event.body)) return processEvent(event);
+    log("warn", "slack.refused", { platform: "slack", code: "malformed", ...(!socket && { status: 400 }) });
+    await event.ack();
+  };
+  if (socket) guardSocketFrames((receiver as SocketModeReceiver).client);
   let ready = false;
   let stopped = false;
   let lastCode: string | undefined;

@@ -73,7 +73,10 @@ describe("bodies that are not what a platform sends", () => {
     const { plausibleBody } = await import("../../adapters/slack/app.js");
     const json = (s: string) => plausibleBody(Buffer.from(s), "application/json");
     const form = (s: string) => plausibleBody(Buffer.from(s), "application/x-www-form-urlencoded");
-    expect(json('{"type":"event_callback","event":{}}')).toBe(true);
+    expect(json('{"type":"event_callback","event":{"type":"app_mention"}}')).toBe(true);
+    // Bolt and the socket client read the event's type: an envelope without an event is refused.
+    for (const event of ["null", "[]", "{}", '"x"'])
+      expect(json(`{"type":"event_callback","event":${event}}`)).toBe(false);
     expect(json('{"actions":[],"challenge":"x"}')).toBe(false); // found by npm run fuzz: Bolt said 500
     expect(json('{"type":3}')).toBe(false);
     expect(form(`payload=${encodeURIComponent('{"type":"block_actions"}')}`)).toBe(true);

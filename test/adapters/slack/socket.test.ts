@@ -2,6 +2,7 @@ import type { AddressInfo } from "node:net";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { type WebSocket, WebSocketServer } from "ws";
 import { loadConfig } from "../../../bot/config.js";
+import { setLogSink } from "../../../bot/log.js";
 import { type Running, startPlatforms } from "../../../bot/platforms.js";
 import { fixture } from "../../helpers/fixtures.js";
 import { BOT_USER_ID, type FakeSlack, fakeSlack } from "../../helpers/slack.js";
@@ -137,6 +138,40 @@ describe("Socket Mode (npm start with SLACK_APP_TOKEN)", () => {
     };
     expect(ack.payload.response_type).toBe("ephemeral");
     expect(ack.payload.text).toContain("gap 10.0");
+  });
+
+  it("acknowledges and drops an envelope whose payload is not what Slack sends, and keeps serving", async () => {
+    const logs: string[] = [];
+    setLogSink((l) => logs.push(l));
+    try {
+      const ws = await connected();
+      const bad: unknown[] = [null, [], 5, "text", {}, { event: {} }];
+      bad.forEach((payload, i) =>
+        ws.send(JSON.stringify({ envelope_id: `bad-${i}`, type: "events_api", retry_attempt: 0, payload })),
+      );
+      const until = Date.now() + 5000;
+      while (acks.filter((a) => a.startsWith("bad-")).length < bad.length && Date.now() < until)
+        await new Promise((r) => setTimeout(r, 10));
+      expect(acks.filter((a) => a.startsWith("bad-")).sort()).toEqual(bad.map((_, i) => `bad-${i}`));
+      // Frames that are not envelopes at all: nothing to acknowledge, still refused.
+      for (const frame of ["null", "[1]", "7", '"x"', '{"type":"events_api"}']) ws.send(frame);
+      const refused = () => logs.filter((l) => l.includes('"slack.refused"') && l.includes('"malformed"'));
+      while (refused().length < bad.length + 5 && Date.now() < until)
+        await new Promise((r) => setTimeout(r, 10));
+      expect(refused()).toHaveLength(bad.length + 5);
+      expect(logs.some((l) => l.includes("listener-failed") || l.includes("unhandled"))).toBe(false);
+      // Still serving: a good mention is answered.
+      const recorded = fixture("channel-mention-slack.json").mention;
+      const payload = {
+        ...recorded,
+        event_id: "EvSOCK9",
+        event: { ...recorded.event, type: "app_mention", text: `<@${BOT_USER_ID}> ${PANEL}` },
+      };
+      ws.send(JSON.stringify({ envelope_id: "env-9", type: "events_api", retry_attempt: 0, payload }));
+      await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"));
+    } finally {
+      setLogSink(() => {});
+    }
   });
 
   it("serves /healthz beside the socket", async () => {
