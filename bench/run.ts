@@ -238,14 +238,16 @@ function slackEnv(p: number, connector: string): Record<string, string> {
 }
 
 // --- Slack HTTP path --------------------------------------------------------------------------
-async function slack(connector: string): Promise<void> {
-  // Every request is a new signed command (its own trigger_id and signature), as Slack sends
-  // them: one request repeated would be dropped as a replay and measure nothing.
+/**
+ * Signed slash commands, each new (its own trigger_id and signature), as Slack sends them: one
+ * request repeated would be dropped as a replay and measure nothing.
+ */
+function slackCommand(connector: string, text = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"): () => Shot {
   let sent = 0;
-  const shot = (): Shot => {
+  return () => {
     const body = new URLSearchParams({
       command: "/solute",
-      text: "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310",
+      text,
       channel_id: "C0BENCH",
       user_id: "U0BENCH",
       team_id: "T0BENCH",
@@ -264,6 +266,10 @@ async function slack(connector: string): Promise<void> {
       },
     };
   };
+}
+
+async function slack(connector: string): Promise<void> {
+  const shot = slackCommand(connector);
   const env = (p: number) => slackEnv(p, connector);
   // The same answer as Solute gives, for a bare app that only sends it (its size, not its work).
   await loadUnits();
@@ -389,6 +395,57 @@ async function startup(connector: string): Promise<void> {
     met: ours / bare <= 1.3,
   });
   log(`startup: ours ${times.ours!.map(Math.round)} bare ${times.bare!.map(Math.round)}`);
+}
+
+// --- first reply ------------------------------------------------------------------------------
+/**
+ * Ready means ready: the first answer after /readyz turns 200 against warm ones from the same
+ * process. Each round starts the production build, waits for /readyz, times one signed command
+ * (answered in the response), then 30 more; the row compares the median first with the median
+ * warm answer over the rounds.
+ */
+async function firstReply(connector: string): Promise<void> {
+  const firsts: number[] = [];
+  const warm: number[] = [];
+  for (let round = 0; round < (quick ? 3 : 7); round++) {
+    const p = port();
+    const { child } = await start(
+      process.execPath,
+      ["dist/main.js"],
+      slackEnv(p, connector),
+      /"event":"ready"/,
+    );
+    try {
+      const base = `http://127.0.0.1:${p}`;
+      while ((await fetch(`${base}/readyz`)).status !== 200) await new Promise((r) => setTimeout(r, 5));
+      const shot = slackCommand(connector);
+      const timed = async () => {
+        const { body, headers } = shot();
+        const t = performance.now();
+        const res = await fetch(`${base}/slack/events`, { method: "POST", body, headers });
+        const text = await res.text();
+        if (res.status !== 200 || !text.includes("gap")) throw new Error(`first reply: ${res.status}`);
+        return performance.now() - t;
+      };
+      firsts.push(await timed());
+      for (let i = 0; i < 30; i++) warm.push(await timed());
+    } finally {
+      await stop(child);
+    }
+  }
+  const first = median(firsts);
+  const steady = median(warm);
+  rows.push({
+    what: "first reply",
+    measure:
+      "first signed command answered after /readyz is 200, against warm answers (Slack over HTTP), medians of runs",
+    ours: `${first.toFixed(1)} ms`,
+    reference: `warm: ${steady.toFixed(1)} ms`,
+    ratio: `${(first / steady).toFixed(2)} ×`,
+    budget: "≤ 1.0 × (no longer than a warm one)",
+    met: first <= steady,
+  });
+  log(`first reply: ${firsts.map((t) => t.toFixed(1)).join(" ")} ms; warm median ${steady.toFixed(1)} ms`);
 }
 
 // --- memory -----------------------------------------------------------------------------------
@@ -523,6 +580,7 @@ async function main(): Promise<void> {
   try {
     if (want("engine")) await engine();
     if (want("startup")) await startup(connectorUrl);
+    if (want("first")) await firstReply(connectorUrl);
     if (want("slack")) await slack(connectorUrl);
     if (want("teams")) await teams(connectorUrl);
     if (want("memory")) await memory();

@@ -29,6 +29,8 @@ export interface Request {
   platform: Platform;
   /** A button re-rendering an answer already given: it is answered, never logged again. */
   replay?: boolean;
+  /** The start-up rehearsal (bot/warm.ts): answered on a throwaway store, never logged. */
+  rehearsal?: boolean;
 }
 
 export type BotConfig = Pick<Config, "secret" | "shiftMs" | "osmolalityRange" | "defaultUnits"> & {
@@ -123,12 +125,13 @@ export class Conversation {
     const reply = handler ? await handler(ctx, this) : await this.calculate(ctx);
     // "working" (or "more") in the message shows everything, whatever the command.
     if (showWorking) reply.showWorking = true;
-    log("info", "reply", {
-      platform: request.platform,
-      code: reply.kind,
-      ms: performance.now() - started,
-      count: reply.problems.length,
-    });
+    if (!request.rehearsal)
+      log("info", "reply", {
+        platform: request.platform,
+        code: reply.kind,
+        ms: performance.now() - started,
+        count: reply.problems.length,
+      });
     return reply;
   }
 

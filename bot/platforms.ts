@@ -10,6 +10,7 @@ import { drain } from "./inflight.js";
 import { log } from "./log.js";
 import { type Handler, startServer } from "./server.js";
 import type { Store } from "./store.js";
+import { type Renderer, rehearse } from "./warm.js";
 
 /** The store the configuration asks for: Redis when REDIS_URL is set, else in memory. */
 export async function makeStore(config: Config): Promise<Store> {
@@ -33,17 +34,18 @@ export async function startPlatforms(config: Config): Promise<Running> {
   const bot = new Conversation(store, config);
   const routes: Record<string, Handler> = {};
   const stops: (() => Promise<void>)[] = [];
-  let unitsLoaded = false;
+  let warm = false;
   const checks: Record<string, () => { ready: boolean; code?: string }> = {
-    units: () => ({ ready: unitsLoaded, code: "loading" }),
+    engine: () => ({ ready: warm, code: "warming" }),
   };
-  // The unit tables load now; /readyz turns 200 only once they are in (the first message waits for nothing).
-  const units = loadUnits().then(() => {
-    unitsLoaded = true;
-  });
+  const renderers: Renderer[] = [];
+  // The unit tables load while the platforms start.
+  const units = loadUnits();
 
   if (config.slack) {
     const { createSlackAdapter } = await import("../adapters/slack/app.js");
+    const { render } = await import("../adapters/slack/render.js");
+    renderers.push((reply, source) => render(reply, { source, offerPost: true }));
     const slack = createSlackAdapter({ config: config.slack, bot });
     if (slack.handler) routes["/slack/events"] = slack.handler;
     // Never fatal: a Slack that cannot authenticate is retried in the background and named by
@@ -56,6 +58,8 @@ export async function startPlatforms(config: Config): Promise<Running> {
 
   if (config.teams) {
     const { createTeamsAdapter } = await import("../adapters/teams/app.js");
+    const { renderCard } = await import("../adapters/teams/render.js");
+    renderers.push((reply) => renderCard(reply));
     const teams = createTeamsAdapter({ config: config.teams, bot });
     routes["/api/messages"] = teams.handler;
     if (config.teams.local) {
@@ -74,7 +78,16 @@ export async function startPlatforms(config: Config): Promise<Running> {
     store,
     checks: () => Object.fromEntries(Object.entries(checks).map(([k, c]) => [k, c()])),
   });
+  // The unit tables load, then a rehearsal runs every path once (bot/warm.ts): /readyz turns 200
+  // only after both, so the first message waits for nothing and meets compiled code.
   await units;
+  await rehearse(
+    config,
+    config.slack ? "slack" : config.teams ? "teams" : "console",
+    renderers,
+    new MemoryStore(),
+  );
+  warm = true;
   log("info", "ready", { count: server.port });
   return {
     port: server.port,
