@@ -62,8 +62,16 @@ export interface Reply {
   confirm?: boolean;
   /** Whether the working should be shown inline (the user asked for it). */
   showWorking: boolean;
+  /** Sodium courses to draw (trend, handover of one case); rendered only by a surface that shows pictures. */
+  charts?: ChartRequest[];
   /** The machine-readable result, for the one-shot command's JSON and the shift log. */
   data?: { reading?: Reading; assessment?: Assessment; verdicts?: Verdict[]; trend?: CorrectionTrend };
+}
+
+/** One case's sodium course to draw: its tag (nothing else names it) and its trend. */
+export interface ChartRequest {
+  tag: string;
+  trend: CorrectionTrend;
 }
 
 export function emptyReply(kind: ReplyKind, headline: string): Reply {

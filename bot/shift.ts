@@ -226,14 +226,26 @@ const TREND_CAUTION =
   "The limits are guidance (European guideline, Spasovski 2014; US panel, Verbalis 2013): recheck against the lab's results, count any sodium not logged here, and weigh urine output, fluids given and symptoms.";
 
 export async function handover(ctx: Context, bot: Conversation): Promise<Reply> {
+  // "handover bed 12": that case only, with the chart of its sodium course.
+  const { tag: only, problem } = tagIn(ctx.rest);
+  if (problem) {
+    const reply = emptyReply("handover", "Which case?");
+    reply.problems.push({ code: "tag.refused", message: problem });
+    return reply;
+  }
   const records = await load(bot, ctx);
   if (!records) return unavailable("handover");
   const now = bot.clock();
   const shiftFrom = now - bot.config.shiftMs;
-  const tags = [...new Set(records.filter((r) => r.at >= shiftFrom).map((r) => r.tag))].sort((a, b) =>
-    a.localeCompare(b, "en", { numeric: true }),
-  );
+  const tags = [...new Set(records.filter((r) => r.at >= shiftFrom).map((r) => r.tag))]
+    .filter((t) => only === undefined || t === only)
+    .sort((a, b) => a.localeCompare(b, "en", { numeric: true }));
   const hours = Math.round(bot.config.shiftMs / HOUR);
+  if (tags.length === 0 && only !== undefined) {
+    const reply = emptyReply("handover", `Handover: nothing logged for ${only} in the last ${hours} h`);
+    reply.shareable = true;
+    return reply;
+  }
   const calculations = records.filter((r) => r.at >= shiftFrom && Object.keys(r.inputs).length > 0).length;
   if (tags.length === 0) {
     const reply = emptyReply("handover", `Handover: nothing logged in this channel in the last ${hours} h`);
@@ -272,6 +284,7 @@ export async function handover(ctx: Context, bot: Conversation): Promise<Reply> 
     const flags = [...new Set(list.flatMap((x) => x.flags))].map((f) => HANDOVER_FLAGS[f]).filter(Boolean);
     if (flags.length > 0) reply.interpretation.push(`${tag}: ${flags.join("; ")}.`);
     const trend = episodeTrend(episode, now);
+    if (trend && only !== undefined) reply.charts = [{ tag, trend }];
     if (trend) {
       const series = trend.points.map((p) => num(p.sodium)).join(" → ");
       const verdict = trend.findings[0];
@@ -393,6 +406,7 @@ export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
   );
   reply.shareable = true;
   reply.data = { trend: t! };
+  reply.charts = [{ tag: name, trend: t! }];
   return reply;
 }
 

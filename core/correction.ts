@@ -74,6 +74,8 @@ export interface CorrectionTrend {
   /** A rate from the open window's start, projected to its end: a projection, not a change. */
   projected?: { perHour: number; atWindowEnd: number };
   highRisk: boolean;
+  /** Hours from the first value to now (the last value, unless the caller said when now is). */
+  nowHours: number;
   findings: Finding[];
 }
 
@@ -135,6 +137,7 @@ export function correctionTrend(
     points: shown,
     windows: [],
     highRisk,
+    nowHours,
     findings,
   };
 

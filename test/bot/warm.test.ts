@@ -12,7 +12,12 @@ describe("the start-up rehearsal", () => {
     const rendered: Reply[] = [];
     const store = new MemoryStore();
     try {
-      await rehearse(loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789" }), "slack", [(r) => rendered.push(r)], store);
+      await rehearse(
+        loadConfig({ SOLUTE_SECRET: "solute-secret-0123456789" }),
+        "slack",
+        [(r) => rendered.push(r)],
+        store,
+      );
     } finally {
       setLogSink(() => {});
     }
