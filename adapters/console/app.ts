@@ -8,9 +8,13 @@
  * typed by hand and sent with Enter is a message of its own. "working" on its own shows the
  * working of the last answer; "quit" (or Ctrl-D) leaves.
  */
+import { writeFile } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { createInterface } from "node:readline";
 import type { Readable, Writable } from "node:stream";
 import type { Conversation } from "../../bot/conversation.js";
+import { errorCode } from "../../bot/log.js";
 import type { Reply } from "../../bot/reply.js";
 import { renderText } from "../../bot/text.js";
 import { render } from "./render.js";
@@ -48,11 +52,35 @@ export function messagesOf(lines: string[], isCommand: (word: string) => boolean
   return messages;
 }
 
+/**
+ * Writes each chart of a reply as a PNG into `dir` and says where, with its alt text. The file
+ * is named by the case tag only (sodium-bed-12.png).
+ */
+export async function writeCharts(reply: Reply, dir: string, file?: string): Promise<string[]> {
+  if (!reply.charts?.length) return [];
+  const { drawChart } = await import("../../bot/charts.js");
+  const lines: string[] = [];
+  for (const [i, request] of reply.charts.entries()) {
+    const chart = await drawChart(request);
+    const path = file && i === 0 ? file : join(dir, chart.name);
+    try {
+      await writeFile(path, chart.png);
+      lines.push(`Chart written to ${path}: ${chart.alt}`);
+    } catch (error) {
+      lines.push(`The chart could not be written to ${path} (${errorCode(error)}).`);
+    }
+  }
+  return lines;
+}
+
 export async function startConsole(
   bot: Conversation,
   input: Readable,
   output: Writable,
-  options: { pasteMs?: number } = {},
+  options: {
+    pasteMs?: number /** Where charts are written; the system's temporary folder by default. */;
+    chartDir?: string;
+  } = {},
 ): Promise<void> {
   const rl = createInterface({ input, output, terminal: (output as { isTTY?: boolean }).isTTY === true });
   const write = (s: string) => output.write(`${s}\n`);
@@ -82,6 +110,7 @@ export async function startConsole(
       }
       last = await bot.handle({ text, channel: CONSOLE_CHANNEL, platform: "console" });
       write(render(last));
+      for (const line of await writeCharts(last, options.chartDir ?? tmpdir())) write(line);
       write("");
     });
   };

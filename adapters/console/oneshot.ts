@@ -1,18 +1,20 @@
 /**
  * One message in, one answer out, for scripts:
- *   npm run -s solute -- [--json] [--units si|conventional] [--working] "<message>"
+ *   npm run -s solute -- [--json] [--units si|conventional] [--working] [--chart FILE] "<message>"
  * Exit 0 when any result was computed, 2 when nothing could be, 1 on a usage error.
  */
+import { dirname } from "node:path";
 import { parseArgs } from "node:util";
 import { ConfigError, loadConfig } from "../../bot/config.js";
 import { Conversation } from "../../bot/conversation.js";
 import { computedAnything, toJson } from "../../bot/json.js";
 import { setQuiet } from "../../bot/log.js";
 import type { Store } from "../../bot/store.js";
+import { writeCharts } from "./app.js";
 import { render } from "./render.js";
 
 const USAGE =
-  'usage: npm run -s solute -- [--json] [--units si|conventional] [--working] "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"';
+  'usage: npm run -s solute -- [--json] [--units si|conventional] [--working] [--chart FILE] "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"\n  --chart FILE writes the chart of a trend (trend Na 118 at 22:00, 121 at 04:00) as a PNG';
 
 export async function oneShot(
   argv: string[],
@@ -53,6 +55,13 @@ export async function oneShot(
     platform: "console",
   });
   out(values.json ? JSON.stringify(toJson(reply), null, 2) : render(reply));
+  if (values.chart !== undefined) {
+    const lines = await writeCharts(reply, dirname(values.chart), values.chart);
+    if (lines.length === 0)
+      err("--chart: this answer has no chart (charts come with trend and handover <tag>).");
+    // With --json, stdout stays pure JSON: where the chart went is said on stderr.
+    for (const line of lines) (values.json ? err : out)(line);
+  }
   return computedAnything(reply) ? 0 : 2;
 }
 
@@ -64,6 +73,7 @@ function parse(argv: string[]) {
       json: { type: "boolean" },
       units: { type: "string" },
       working: { type: "boolean" },
+      chart: { type: "string" },
       help: { type: "boolean", short: "h" },
     },
   });

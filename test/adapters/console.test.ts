@@ -179,3 +179,51 @@ describe("a pasted block is one message", () => {
     expect(out).toContain("Read: Na 128, glucose 30, urea 14, osm 320");
   });
 });
+
+describe("charts in the terminal", { timeout: 60_000 }, () => {
+  const TREND = "trend Na 110 (0 h) 114 (6 h) 118 (12 h)";
+
+  it("the one-shot command writes the trend's chart with --chart FILE", async () => {
+    const { mkdtempSync, readFileSync } = await import("node:fs");
+    const { tmpdir } = await import("node:os");
+    const { join } = await import("node:path");
+    const { PNG } = await import("pngjs");
+    const file = join(mkdtempSync(join(tmpdir(), "solute-chart-")), "course.png");
+    const r = await solute(["--chart", file, TREND]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain(`Chart written to ${file}: Chart of the sodium for this series`);
+    const png = PNG.sync.read(readFileSync(file));
+    expect([png.width, png.height]).toEqual([640, 360]);
+    // An answer without a chart says so, on stderr.
+    const none = await solute(["--chart", file, "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310"]);
+    expect(none.stderr).toContain("this answer has no chart");
+  });
+
+  it("the terminal chat writes the chart and says where", async () => {
+    const { mkdtempSync, existsSync } = await import("node:fs");
+    const { tmpdir } = await import("node:os");
+    const { join } = await import("node:path");
+    const { PassThrough } = await import("node:stream");
+    const { startConsole } = await import("../../adapters/console/app.js");
+    const { Conversation } = await import("../../bot/conversation.js");
+    const { MemoryStore } = await import("../../adapters/store/memory.js");
+    const bot = new Conversation(new MemoryStore(), {
+      secret: "test-secret-0123456789",
+      shiftMs: 16 * 3_600_000,
+      osmolalityRange: { low: 275, high: 295 },
+    });
+    const dir = mkdtempSync(join(tmpdir(), "solute-chat-"));
+    const input = new PassThrough();
+    const output = new PassThrough();
+    let out = "";
+    output.on("data", (d) => {
+      out += d;
+    });
+    const done = startConsole(bot, input, output, { pasteMs: 5, chartDir: dir });
+    input.end(`trend bed 9 Na 110 (0 h) 114 (6 h) 118 (12 h)\n`);
+    await done;
+    const path = join(dir, "sodium-bed-9.png");
+    expect(out).toContain(`Chart written to ${path}`);
+    expect(existsSync(path)).toBe(true);
+  });
+});
