@@ -211,6 +211,21 @@ function refusedFrame(data: unknown, isBinary: boolean): string | undefined {
   return id;
 }
 
+/** Said in the thread when the app may not upload files. */
+export const CHARTS_NEED_SCOPE =
+  "The chart of this course could not be added: the Solute app needs the files:write scope. An admin can add it in the app's settings (OAuth & Permissions) and reinstall the app.";
+
+const CHART_NOTE = "Post this answer to the channel, or mention @Solute, to get the chart of the course.";
+
+/** A private (slash command) answer cannot carry a file: it says how to get the chart. */
+function withChartNote(reply: Reply): Reply {
+  if (!reply.charts?.length) return reply;
+  // In the first view when there is room beside the why lines; never in place of one.
+  return reply.why.length < 3
+    ? { ...reply, why: [...reply.why, CHART_NOTE] }
+    : { ...reply, notes: [...reply.notes, CHART_NOTE] };
+}
+
 export interface SlackOptions {
   config: SlackConfig;
   bot: Conversation;
@@ -375,11 +390,13 @@ export function createSlackAdapter({
     // itself, saving a round trip. If it is not ready in time (a slow store), the command is
     // acknowledged first and answered through response_url — always inside Slack's 3 seconds.
     const text = slashText(command.text);
-    const answering = answer(text, command.channel_id ?? "").then(async (reply) => ({
-      // A channel-wide change (units, a cleared log) is announced to the channel, naming no one.
-      response_type: reply.announce ? ("in_channel" as const) : ("ephemeral" as const),
-      ...(await message(reply, { offerPost: !reply.announce })),
-    }));
+    const answering = answer(text, command.channel_id ?? "")
+      .then(withChartNote)
+      .then(async (reply) => ({
+        // A channel-wide change (units, a cleared log) is announced to the channel, naming no one.
+        response_type: reply.announce ? ("in_channel" as const) : ("ephemeral" as const),
+        ...(await message(reply, { offerPost: !reply.announce })),
+      }));
     const timer = delay(ACK_WITH_ANSWER_MS);
     const quick = await Promise.race([answering, timer.promise]);
     timer.cancel();
@@ -420,6 +437,52 @@ export function createSlackAdapter({
     }
   };
 
+  /**
+   * A reply's charts go into its thread as PNGs (files.uploadV2, which needs files:write). Without
+   * that scope the text reply has been posted already; one line says how to turn charts on.
+   */
+  const uploadCharts = async (
+    client: ActionClient,
+    reply: Reply,
+    channel: string,
+    thread: string | undefined,
+  ) => {
+    if (!reply.charts?.length) return;
+    const { drawChart } = await import("../../bot/charts.js");
+    for (const request of reply.charts) {
+      const chart = await drawChart(request);
+      try {
+        const file = {
+          file: chart.png,
+          filename: chart.name,
+          title: `Sodium course, ${request.tag}`,
+          alt_text: chart.alt,
+        };
+        await withBackoff(async () =>
+          thread
+            ? client.filesUploadV2({ ...file, channel_id: channel, thread_ts: thread })
+            : client.filesUploadV2({ ...file, channel_id: channel }),
+        );
+      } catch (error) {
+        const code = (error as { data?: { error?: string } }).data?.error ?? errorCode(error);
+        log("warn", "slack.chart-failed", { platform: "slack", code });
+        if (code === "missing_scope" || code === "not_allowed_token_type" || code === "no_permission")
+          try {
+            await withBackoff(async () =>
+              client.chat.postMessage({
+                channel,
+                ...(thread && { thread_ts: thread }),
+                text: CHARTS_NEED_SCOPE,
+              }),
+            );
+          } catch (second) {
+            log("warn", "slack.note-failed", { platform: "slack", code: errorCode(second) });
+          }
+        return;
+      }
+    }
+  };
+
   app.event("app_mention", async ({ event, client }) => {
     if (!event.channel) return;
     const text = cleanText(event.text ?? "");
@@ -452,7 +515,9 @@ export function createSlackAdapter({
       );
     } catch (error) {
       await cannotPost(client, event.channel, event.user, error, thread);
+      return;
     }
+    await uploadCharts(client, reply, event.channel, thread);
   });
 
   app.message(async ({ message: m, client }) => {
@@ -462,8 +527,9 @@ export function createSlackAdapter({
     const reply = await answer(text, m.channel);
     // A message inside a DM thread is answered in that thread.
     const thread = "thread_ts" in m && typeof m.thread_ts === "string" ? m.thread_ts : undefined;
+    let posted: { ts?: string } | undefined;
     try {
-      await withBackoff(async () =>
+      posted = await withBackoff(async () =>
         client.chat.postMessage({
           channel: m.channel,
           ...(thread && { thread_ts: thread }),
@@ -472,7 +538,10 @@ export function createSlackAdapter({
       );
     } catch (error) {
       await cannotPost(client, m.channel, "user" in m ? (m.user as string) : undefined, error, thread);
+      return;
     }
+    // The chart goes into the reply's thread: the DM's thread, or one under the reply.
+    await uploadCharts(client, reply, m.channel, thread ?? posted?.ts);
   });
 
   // One listener for every button: Bolt runs every listener's middleware on every request, so
@@ -503,9 +572,18 @@ export function createSlackAdapter({
       return;
     }
     const channel = body.channel?.id ?? "";
+    // Posted, the answer brings its chart: the private answer's note on how to get it goes.
+    const shown = {
+      ...reply,
+      why: reply.why.filter((w) => w !== CHART_NOTE),
+      notes: reply.notes.filter((n) => n !== CHART_NOTE),
+    };
     try {
-      await withBackoff(async () => client.chat.postMessage({ channel, ...(await message(reply)) }));
+      const posted = await withBackoff(async () =>
+        client.chat.postMessage({ channel, ...(await message(shown)) }),
+      );
       await respond({ delete_original: true });
+      await uploadCharts(client, shown, channel, posted.ts);
     } catch (error) {
       // The bot may not be in the channel (an answer shared from a DM): say so, privately.
       const code = (error as { data?: { error?: string } }).data?.error ?? errorCode(error);

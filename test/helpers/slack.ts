@@ -9,6 +9,8 @@ import type { AddressInfo } from "node:net";
 export interface Call {
   path: string;
   body: Record<string, unknown>;
+  /** The request body as sent (a file upload is multipart binary). */
+  bytes: Buffer;
 }
 
 export interface FakeSlack {
@@ -29,11 +31,13 @@ export async function fakeSlack(): Promise<FakeSlack> {
   const failures = new Map<string, { status: number; times: number; noRetryAfter?: boolean }>();
   const methods: FakeSlack["methods"] = {};
   const server: Server = createServer((req, res) => {
-    let raw = "";
-    req.on("data", (d) => {
-      raw += d;
+    const chunks: Buffer[] = [];
+    req.on("data", (d: Buffer) => {
+      chunks.push(d);
     });
     req.on("end", () => {
+      const bytes = Buffer.concat(chunks);
+      const raw = bytes.toString("utf8");
       const path = req.url ?? "/";
       let body: Record<string, unknown> = {};
       const type = req.headers["content-type"] ?? "";
@@ -44,7 +48,7 @@ export async function fakeSlack(): Promise<FakeSlack> {
       } catch {
         body = { raw };
       }
-      calls.push({ path, body });
+      calls.push({ path, body, bytes });
       const fail = failures.get(path);
       if (fail && fail.times > 0) {
         fail.times--;
@@ -69,6 +73,12 @@ export async function fakeSlack(): Promise<FakeSlack> {
         };
       else if (method === "chat.postMessage")
         answer = { ok: true, ts: `${Date.now() / 1000}`, channel: body.channel };
+      // The files upload flow (files.uploadV2 in @slack/web-api): a URL to send the bytes to, then completion.
+      else if (method === "files.getUploadURLExternal") {
+        const id = `F0CHART${calls.filter((c) => c.path.endsWith("files.getUploadURLExternal")).length}`;
+        answer = { ok: true, upload_url: `${url}/upload/${id}`, file_id: id };
+      } else if (method === "files.completeUploadExternal")
+        answer = { ok: true, files: JSON.parse(String(body.files ?? "[]")) };
       res.writeHead(200, { "content-type": "application/json" }).end(JSON.stringify(answer));
     });
   });

@@ -16,6 +16,8 @@ describe.each(["http.json", "socket-mode.json"])("Slack app manifest %s", (name)
       "channels:read",
       "chat:write",
       "commands",
+      // files:write: the chart of a sodium course, uploaded into the reply's thread.
+      "files:write",
       "groups:read",
       "im:history",
     ]);

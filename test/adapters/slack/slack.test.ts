@@ -152,8 +152,8 @@ describe("slash command", () => {
 });
 
 /** A button's value from a real private answer to the slash command. */
-async function buttonValue(actionId: string): Promise<string> {
-  const res = await postSigned(url, SECRET, slash(PANEL), "application/x-www-form-urlencoded");
+async function buttonValue(actionId: string, text = PANEL): Promise<string> {
+  const res = await postSigned(url, SECRET, slash(text), "application/x-www-form-urlencoded");
   const blocks = JSON.parse(res.text).blocks as {
     type: string;
     elements?: { action_id: string; value: string }[];
@@ -317,5 +317,89 @@ describe("privacy", () => {
     ]) {
       expect(everything).not.toContain(secret);
     }
+  });
+});
+
+describe("the chart of a sodium course", () => {
+  const TREND = "trend bed 12 Na 110 (0 h) 114 (6 h) 118 (12 h)";
+  /** The PNG inside a multipart upload: from its signature to the end of its IEND chunk. */
+  const pngIn = (bytes: Buffer) => {
+    const start = bytes.indexOf(Buffer.from([0x89, 0x50, 0x4e, 0x47]));
+    const end = bytes.indexOf(Buffer.from("IEND")) + 8;
+    return bytes.subarray(start, end);
+  };
+
+  it("is uploaded into the reply's thread with its alt text, after the text reply", async () => {
+    const { PNG } = await import("pngjs");
+    const res = await postSigned(url, SECRET, JSON.stringify(mention(TREND)), "application/json");
+    expect(res.status).toBe(200);
+    const calls = await api.waitFor((c) => c.some((x) => x.path === "/api/files.completeUploadExternal"));
+    const posted = calls.find((c) => c.path === "/api/chat.postMessage")!;
+    const asked = calls.find((c) => c.path === "/api/files.getUploadURLExternal")!;
+    const upload = calls.find((c) => c.path.startsWith("/upload/"))!;
+    const done = calls.find((c) => c.path === "/api/files.completeUploadExternal")!;
+    const thread = fixture("channel-mention-slack.json").mention.event.ts;
+    expect(calls.indexOf(posted)).toBeLessThan(calls.indexOf(asked));
+    expect(posted.body.thread_ts).toBe(thread);
+    expect(String(posted.body.text)).toContain("bed 12");
+    expect(asked.body.filename).toBe("sodium-bed-12.png");
+    expect(String(asked.body.alt_text)).toContain("Chart of the sodium for bed 12");
+    expect(String(asked.body.alt_text)).toContain("110 at hour 0, 114 at hour 6, 118 at hour 12");
+    expect(done.body.thread_ts).toBe(thread);
+    const png = PNG.sync.read(pngIn(upload.bytes));
+    expect([png.width, png.height]).toEqual([640, 360]);
+  });
+
+  it("without files:write the text reply still comes, with one line saying how to enable charts", async () => {
+    api.methods["files.getUploadURLExternal"] = () => ({ ok: false, error: "missing_scope" });
+    await postSigned(url, SECRET, JSON.stringify(mention(TREND)), "application/json");
+    const calls = await api.waitFor((c) => c.filter((x) => x.path === "/api/chat.postMessage").length >= 2);
+    const posts = calls.filter((c) => c.path === "/api/chat.postMessage");
+    expect(String(posts[0]!.body.text)).toContain("bed 12");
+    expect(posts[1]!.body.text).toContain("files:write");
+    expect(posts[1]!.body.thread_ts).toBe(posts[0]!.body.thread_ts);
+    expect(calls.some((c) => c.path.startsWith("/upload/"))).toBe(false);
+  });
+
+  it("a private slash-command answer says how to get the chart, and uploads nothing", async () => {
+    const body = JSON.parse(
+      (await postSigned(url, SECRET, slash(TREND), "application/x-www-form-urlencoded")).text,
+    );
+    expect(JSON.stringify(body)).toContain("to get the chart of the course");
+    expect(api.calls.some((c) => c.path.includes("files."))).toBe(false);
+  });
+
+  it("posting the private answer to the channel brings the chart, under the posted answer", async () => {
+    const value = await buttonValue("solute_post", TREND);
+    const payload = {
+      type: "block_actions",
+      team: { id: "T00FAKE00BB", domain: "acme" },
+      user: { id: "U00FAKEUSER2" },
+      api_app_id: "A00FAKEAPP03",
+      token: "x",
+      trigger_id: "1.2.3",
+      channel: { id: "C00FAKECHAN3", name: "night" },
+      container: { type: "message", message_ts: "1.1", channel_id: "C00FAKECHAN3", is_ephemeral: true },
+      response_url: `${api.url}/respond/2`,
+      actions: [{ type: "button", action_id: "solute_post", block_id: "b", value, action_ts: "1" }],
+    };
+    await postSigned(
+      url,
+      SECRET,
+      form({ payload: JSON.stringify(payload) }),
+      "application/x-www-form-urlencoded",
+    );
+    const calls = await api.waitFor((c) => c.some((x) => x.path === "/api/files.completeUploadExternal"));
+    const posted = calls.find((c) => c.path === "/api/chat.postMessage")!;
+    expect(JSON.stringify(posted.body)).not.toContain("to get the chart");
+    const done = calls.find((c) => c.path === "/api/files.completeUploadExternal")!;
+    expect(done.body.channel_id).toBe("C00FAKECHAN3");
+    expect(done.body.thread_ts).toBeDefined();
+  });
+
+  it("a calculation without a course uploads nothing", async () => {
+    await postSigned(url, SECRET, JSON.stringify(mention(PANEL)), "application/json");
+    await api.waitFor((c) => c.some((x) => x.path === "/api/chat.postMessage"));
+    expect(api.calls.some((c) => c.path.includes("files."))).toBe(false);
   });
 });
