@@ -25,8 +25,9 @@ import type { TeamsConfig } from "../../bot/config.js";
 import type { Conversation } from "../../bot/conversation.js";
 import { errorCode, log } from "../../bot/log.js";
 import { channelKey } from "../../bot/privacy.js";
+import type { Reply } from "../../bot/reply.js";
 import { channelOf, cleanText, mentionsBot } from "./events.js";
-import { renderCard } from "./render.js";
+import { type CardImage, renderCard } from "./render.js";
 
 const WELCOME =
   "Solute is here: mention me with lab values (Na 128 glu 540 mg/dL urea 14 mmol/L osm 310), or message me directly. Tag cases by bed or bay, never by name. Type help for more; units si or units conventional sets this chat's units.";
@@ -78,6 +79,21 @@ function publicCloudWithKeysAt(url: string) {
     ToBotFromEmulatorOpenIdMetadataUrl: AuthenticationConstants.ToBotFromEmulatorOpenIdMetadataUrl,
     CallerId: CallerIdConstants.PublicAzureChannel,
   };
+}
+
+async function chartImages(reply: Reply): Promise<CardImage[]> {
+  if (!reply.charts?.length) return [];
+  const { drawChart } = await import("../../bot/charts.js");
+  const images: CardImage[] = [];
+  for (const request of reply.charts) {
+    try {
+      const chart = await drawChart(request);
+      images.push({ url: `data:image/png;base64,${chart.png.toString("base64")}`, altText: chart.alt });
+    } catch (error) {
+      log("warn", "teams.chart-failed", { platform: "teams", code: errorCode(error) });
+    }
+  }
+  return images;
 }
 
 /** jsonwebtoken's own errors, which botframework-connector passes on as they are. */
@@ -183,7 +199,10 @@ export function createTeamsAdapter({
       await context.sendActivity(MessageFactory.text(QUIET_HINT));
       return;
     }
-    const message = MessageFactory.attachment(CardFactory.adaptiveCard(renderCard(reply)));
+    // A trend's chart goes into the card as a data URI: no file store and no public URL to run
+    // (drawn only when asked for; about 13 KB as base64, inside the card's size limit).
+    const images = await chartImages(reply);
+    const message = MessageFactory.attachment(CardFactory.adaptiveCard(renderCard(reply, { images })));
     message.summary = reply.headline;
     try {
       await context.sendActivity(message);

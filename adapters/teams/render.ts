@@ -70,8 +70,40 @@ function moreBlocks(reply: Reply): Element[] {
   return body;
 }
 
-export function renderCard(reply: Reply, options: { working?: boolean } = {}): AdaptiveCard {
-  const expanded = options.working ?? reply.showWorking;
+/** A picture for the card: a data URI (or URL) and what it shows in words. */
+export interface CardImage {
+  url: string;
+  altText: string;
+}
+
+/**
+ * Teams refuses a message over about 28 KB; a card stays under this with its pictures, or the
+ * pictures are left out and the card says so.
+ */
+export const CARD_BYTES = 26 * 1024;
+
+export function renderCard(
+  reply: Reply,
+  options: { working?: boolean; images?: CardImage[] } = {},
+): AdaptiveCard {
+  const card = cardOf(reply, options.working, options.images ?? []);
+  if (options.images?.length && JSON.stringify(card).length > CARD_BYTES) {
+    const without = cardOf(reply, options.working, []);
+    without.body.splice(
+      1,
+      0,
+      text("The chart did not fit in a Teams card; the numbers here say the same.", {
+        isSubtle: true,
+        size: "Small",
+      }),
+    );
+    return without;
+  }
+  return card;
+}
+
+function cardOf(reply: Reply, working: boolean | undefined, images: CardImage[]): AdaptiveCard {
+  const expanded = working ?? reply.showWorking;
   const body: Element[] = [text(reply.headline, { weight: "Bolder", size: "Medium", style: "heading" })];
   if (reply.keyNumbers) body.push(text(reply.keyNumbers, { spacing: "Small" }));
   if (reply.readShort)
@@ -79,6 +111,8 @@ export function renderCard(reply: Reply, options: { working?: boolean } = {}): A
   for (const line of whyLines(reply))
     if (line !== reply.headline) body.push(text(`• ${line}`, { spacing: "Small" }));
   for (const p of reply.problems) body.push(text(p.message, { color: "Attention", spacing: "Small" }));
+  for (const image of images)
+    body.push({ type: "Image", url: image.url, altText: image.altText, size: "Stretch", spacing: "Medium" });
   const cautions = cautionsOf(reply);
   if (cautions.length > 0) {
     body.push({

@@ -1,7 +1,7 @@
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { MemoryStore } from "../../../adapters/store/memory.js";
 import { createTeamsAdapter } from "../../../adapters/teams/app.js";
-import { type AdaptiveCard, escapeMarkdown, renderCard } from "../../../adapters/teams/render.js";
+import { type AdaptiveCard, CARD_BYTES, escapeMarkdown, renderCard } from "../../../adapters/teams/render.js";
 import { loadConfig } from "../../../bot/config.js";
 import { Conversation } from "../../../bot/conversation.js";
 import { setLogSink } from "../../../bot/log.js";
@@ -74,6 +74,42 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
     expect(card.content.fallbackText).not.toContain("not understood");
     expect(JSON.stringify(card.content.actions)).toContain('"title":"More"');
     expect(JSON.stringify(card.content.actions)).toContain("2 × 128 + 29.97 + 14 = 300.0 mOsm/kg");
+  });
+
+  it("a trend's card carries the chart as an image with its alt text, inside Teams' size limit", async () => {
+    const { PNG } = await import("pngjs");
+    const recorded = fixture("channel-teams.json").mention;
+    const activity = replay(
+      recorded,
+      "<at>Chat SDK Demo</at> trend bed 12 Na 110 (0 h) 114 (6 h) 118 (12 h)",
+      connector.serviceUrl,
+    );
+    expect((await post(activity)).status).toBe(200);
+    const [sent] = await connector.waitFor(1);
+    const card = (sent!.activity.attachments as { content: AdaptiveCard }[])[0]!.content;
+    expect(cardProblems(card)).toEqual([]);
+    const image = card.body.find((b) => (b as { type: string }).type === "Image") as {
+      url: string;
+      altText: string;
+    };
+    expect(image.altText).toContain("Chart of the sodium for bed 12");
+    expect(image.altText).toContain("110 at hour 0, 114 at hour 6, 118 at hour 12");
+    expect(image.url.startsWith("data:image/png;base64,")).toBe(true);
+    const png = PNG.sync.read(Buffer.from(image.url.split(",")[1]!, "base64"));
+    expect([png.width, png.height]).toEqual([640, 360]);
+    expect(JSON.stringify(card).length).toBeLessThan(CARD_BYTES);
+    // The verdict still leads; the cautions still close the card.
+    expect(JSON.stringify(card.body[0])).toContain("bed 12");
+    expect(JSON.stringify(card.body.at(-1))).toContain(SHORT_CAUTIONS.general);
+  });
+
+  it("a card whose chart would not fit is sent without it, and says so", () => {
+    const reply = emptyReply("trend", "bed 12: within the correction limits");
+    const card = renderCard(reply, {
+      images: [{ url: `data:image/png;base64,${"A".repeat(30_000)}`, altText: "x" }],
+    });
+    expect(JSON.stringify(card)).not.toContain("data:image/png");
+    expect(JSON.stringify(card)).toContain("did not fit in a Teams card");
   });
 
   it("a channel message without a mention is left alone", async () => {
