@@ -448,6 +448,26 @@ async function firstReply(connector: string): Promise<void> {
   log(`first reply: ${firsts.map((t) => t.toFixed(1)).join(" ")} ms; warm median ${steady.toFixed(1)} ms`);
 }
 
+// --- chart ------------------------------------------------------------------------------------
+async function chart(): Promise<void> {
+  const { firstMs, warmMs, bytes } = JSON.parse(await helper("chart")) as {
+    firstMs: number;
+    warmMs: number;
+    bytes: number;
+  };
+  rows.push({
+    what: "chart",
+    measure:
+      "a two-day sodium course drawn to SVG and a greyscale PNG (d3, resvg), median of 40 warm; the first includes loading the chart code",
+    ours: `${warmMs.toFixed(1)} ms warm, ${bytes.toLocaleString("en")} bytes`,
+    reference: `first: ${firstMs.toFixed(0)} ms`,
+    ratio: "—",
+    budget: "≤ 50 ms warm",
+    met: warmMs <= 50,
+  });
+  log(`chart: first ${firstMs.toFixed(1)} ms, warm ${warmMs.toFixed(1)} ms, ${bytes} bytes`);
+}
+
 // --- memory -----------------------------------------------------------------------------------
 async function memory(): Promise<void> {
   const out = await helper("memory");
@@ -587,6 +607,7 @@ async function main(): Promise<void> {
     if (want("handover")) await handover();
     if (want("replies")) await replies();
     if (want("card")) await card();
+    if (want("chart")) await chart();
   } finally {
     await stop(connector);
   }

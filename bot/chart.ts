@@ -179,7 +179,7 @@ export function trendChart(tag: string, t: CorrectionTrend): Chart {
     );
   if (bands.length > 0)
     legend.push(
-      `<rect x="${M.left + 310}" y="34" width="24" height="12" fill="#e3e3e3"/><text x="${M.left + 340}" y="44" font-size="12">allowed${t.measure === "correctedSodium" ? " (corrected Na)" : ""}${t.highRisk ? ", high risk" : ""}</text>`,
+      `<rect x="${M.left + 290}" y="34" width="24" height="12" fill="#e3e3e3"/><text x="${M.left + 320}" y="44" font-size="12">${t.measure === "correctedSodium" ? "allowed for corrected Na" : "allowed by the limits"}${t.highRisk ? ", high risk" : ""}</text>`,
     );
   out.push(...legend, "</svg>");
   return { svg: out.join("\n"), alt: altText(tag, t, bands, now) };

@@ -12,7 +12,7 @@ export const HELP_LINES = [
   "check Na 131 glu 22 mmol/L urea 9 mmol/L 2*131 + 22 + 9 — checks the arithmetic itself.",
   "units si · units conventional · units none — how this channel's bare glucose, urea and alcohol values are read. Units written in the message always win.",
   "handover — this channel's shift summary by bed or bay: latest values, what was flagged, sodium trends.",
-  "trend bed 12 — that case's sodium course, judged in 24 h windows from its first sodium; or write the series: trend Na 118 at 22:00, 121 at 04:00.",
+  "trend bed 12 — that case's sodium course, judged in 24 h windows from its first sodium, with a chart; or write the series: trend Na 118 at 22:00, 121 at 04:00. handover bed 12 — one case, with its chart.",
   "bed 12 new — a new episode for a reused bed. forget bed 12 — removes that case from the log.",
   "plan Na 118 70 kg woman adult 1 L 0.9% NaCl — what a litre (or 500 mL …) of a fluid is expected to do to the sodium (Adrogué–Madias), checked against correction limits; with a sodium above 145, the free water deficit.",
   "forget — clears this channel's whole shift log now (it clears itself).",

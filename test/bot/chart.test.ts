@@ -113,7 +113,7 @@ describe("the sodium chart", () => {
     const { svg } = trendChart("bed 7", t);
     const words = [...svg.matchAll(/<text[^>]*>([^<]*)<\/text>/g)].flatMap((m) => m[1]!.split(/[\s:·(),]+/));
     const allowed =
-      /^(|bed|7|sodium|over|time|hours|from|the|first|\(?mmol\/L\)?|measured|Na|corrected|Katz|allowed|high|risk|limit|now|more|until|hour|[\d.−-]+)$/;
+      /^(|bed|7|sodium|over|time|hours|from|the|first|by|for|limits|\(?mmol\/L\)?|measured|Na|corrected|Katz|allowed|high|risk|limit|now|more|until|hour|[\d.−-]+)$/;
     expect(words.filter((w) => !allowed.test(w))).toEqual([]);
   });
 
