@@ -211,6 +211,10 @@ function refusedFrame(data: unknown, isBinary: boolean): string | undefined {
   return id;
 }
 
+/** Slack's limit on an image's alt text (files.getUploadURLExternal, alt_txt). */
+const MAX_ALT = 1000;
+const UPLOAD_TIMEOUT_MS = 10_000;
+
 /** Said in the thread when the app may not upload files. */
 export const CHARTS_NEED_SCOPE =
   "The chart of this course could not be added: the Solute app needs the files:write scope. An admin can add it in the app's settings (OAuth & Permissions) and reinstall the app.";
@@ -452,16 +456,31 @@ export function createSlackAdapter({
     for (const request of reply.charts) {
       const chart = await drawChart(request);
       try {
-        const file = {
-          file: chart.png,
-          filename: chart.name,
-          title: `Sodium course, ${request.tag}`,
-          alt_text: chart.alt,
-        };
+        // Slack's upload flow step by step rather than filesUploadV2, which sends the alt text
+        // as alt_text where files.getUploadURLExternal reads alt_txt (at most 1,000 characters).
+        const alt = chart.alt.length <= MAX_ALT ? chart.alt : `${chart.alt.slice(0, MAX_ALT - 1)}…`;
+        const target = await withBackoff(async () =>
+          client.files.getUploadURLExternal({
+            filename: chart.name,
+            length: chart.png.length,
+            ...({ alt_txt: alt } as object),
+          }),
+        );
+        if (!target.upload_url || !target.file_id) throw new Error("no upload URL");
+        const sent = await fetch(target.upload_url, {
+          method: "POST",
+          headers: { "content-type": "image/png" },
+          body: chart.png,
+          signal: AbortSignal.timeout(UPLOAD_TIMEOUT_MS),
+        });
+        if (!sent.ok) throw Object.assign(new Error("upload refused"), { code: `upload_${sent.status}` });
+        const files: [{ id: string; title: string }] = [
+          { id: target.file_id, title: `Sodium course, ${request.tag}` },
+        ];
         await withBackoff(async () =>
           thread
-            ? client.filesUploadV2({ ...file, channel_id: channel, thread_ts: thread })
-            : client.filesUploadV2({ ...file, channel_id: channel }),
+            ? client.files.completeUploadExternal({ files, channel_id: channel, thread_ts: thread })
+            : client.files.completeUploadExternal({ files, channel_id: channel }),
         );
       } catch (error) {
         const code = (error as { data?: { error?: string } }).data?.error ?? errorCode(error);

@@ -322,7 +322,7 @@ describe("privacy", () => {
 
 describe("the chart of a sodium course", () => {
   const TREND = "trend bed 12 Na 110 (0 h) 114 (6 h) 118 (12 h)";
-  /** The PNG inside a multipart upload: from its signature to the end of its IEND chunk. */
+  /** The PNG as uploaded: raw bytes, from its signature to the end of its IEND chunk. */
   const pngIn = (bytes: Buffer) => {
     const start = bytes.indexOf(Buffer.from([0x89, 0x50, 0x4e, 0x47]));
     const end = bytes.indexOf(Buffer.from("IEND")) + 8;
@@ -343,8 +343,11 @@ describe("the chart of a sodium course", () => {
     expect(posted.body.thread_ts).toBe(thread);
     expect(String(posted.body.text)).toContain("bed 12");
     expect(asked.body.filename).toBe("sodium-bed-12.png");
-    expect(String(asked.body.alt_text)).toContain("Chart of the sodium for bed 12");
-    expect(String(asked.body.alt_text)).toContain("110 at hour 0, 114 at hour 6, 118 at hour 12");
+    // Slack's argument is alt_txt (files.getUploadURLExternal), at most 1,000 characters.
+    expect(String(asked.body.alt_txt)).toContain("Chart of the sodium for bed 12");
+    expect(String(asked.body.alt_txt)).toContain("110 at hour 0, 114 at hour 6, 118 at hour 12");
+    expect(String(asked.body.alt_txt).length).toBeLessThanOrEqual(1000);
+    expect(Number(asked.body.length)).toBe(pngIn(upload.bytes).length);
     expect(done.body.thread_ts).toBe(thread);
     const png = PNG.sync.read(pngIn(upload.bytes));
     expect([png.width, png.height]).toEqual([640, 360]);
