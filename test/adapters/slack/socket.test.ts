@@ -146,9 +146,8 @@ describe("Socket Mode (npm start with SLACK_APP_TOKEN)", () => {
     try {
       const ws = await connected();
       const bad: unknown[] = [null, [], 5, "text", {}, { event: {} }];
-      bad.forEach((payload, i) =>
-        ws.send(JSON.stringify({ envelope_id: `bad-${i}`, type: "events_api", retry_attempt: 0, payload })),
-      );
+      for (const [i, payload] of bad.entries())
+        ws.send(JSON.stringify({ envelope_id: `bad-${i}`, type: "events_api", retry_attempt: 0, payload }));
       const until = Date.now() + 5000;
       while (acks.filter((a) => a.startsWith("bad-")).length < bad.length && Date.now() < until)
         await new Promise((r) => setTimeout(r, 10));
