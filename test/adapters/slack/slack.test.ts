@@ -118,18 +118,7 @@ describe("slash command", () => {
 
   it("the post-to-channel button posts the kept answer for the team, removes the private one, logs nothing", async () => {
     const value = await buttonValue("solute_post");
-    const payload = {
-      type: "block_actions",
-      team: { id: "T00FAKE00BB", domain: "acme" },
-      user: { id: "U00FAKEUSER2" },
-      api_app_id: "A00FAKEAPP03",
-      token: "x",
-      trigger_id: "1.2.3",
-      channel: { id: "C00FAKECHAN3", name: "night" },
-      container: { type: "message", message_ts: "1.1", channel_id: "C00FAKECHAN3", is_ephemeral: true },
-      response_url: `${api.url}/respond/2`,
-      actions: [{ type: "button", action_id: "solute_post", block_id: "b", value, action_ts: "1" }],
-    };
+    const payload = postButton(value);
     expect(value).toMatch(/^r1\./);
     const res = await postSigned(
       url,
@@ -150,6 +139,22 @@ describe("slash command", () => {
     expect(value).not.toContain("Na 128");
   });
 });
+
+/** The post-to-channel button pressed on a private answer, as Slack sends it. */
+function postButton(value: string) {
+  return {
+    type: "block_actions",
+    team: { id: "T00FAKE00BB", domain: "acme" },
+    user: { id: "U00FAKEUSER2" },
+    api_app_id: "A00FAKEAPP03",
+    token: "x",
+    trigger_id: "1.2.3",
+    channel: { id: "C00FAKECHAN3", name: "night" },
+    container: { type: "message", message_ts: "1.1", channel_id: "C00FAKECHAN3", is_ephemeral: true },
+    response_url: `${api.url}/respond/2`,
+    actions: [{ type: "button", action_id: "solute_post", block_id: "b", value, action_ts: "1" }],
+  };
+}
 
 /** A button's value from a real private answer to the slash command. */
 async function buttonValue(actionId: string, text = PANEL): Promise<string> {
@@ -374,18 +379,7 @@ describe("the chart of a sodium course", () => {
 
   it("posting the private answer to the channel brings the chart, under the posted answer", async () => {
     const value = await buttonValue("solute_post", TREND);
-    const payload = {
-      type: "block_actions",
-      team: { id: "T00FAKE00BB", domain: "acme" },
-      user: { id: "U00FAKEUSER2" },
-      api_app_id: "A00FAKEAPP03",
-      token: "x",
-      trigger_id: "1.2.3",
-      channel: { id: "C00FAKECHAN3", name: "night" },
-      container: { type: "message", message_ts: "1.1", channel_id: "C00FAKECHAN3", is_ephemeral: true },
-      response_url: `${api.url}/respond/2`,
-      actions: [{ type: "button", action_id: "solute_post", block_id: "b", value, action_ts: "1" }],
-    };
+    const payload = postButton(value);
     await postSigned(
       url,
       SECRET,
