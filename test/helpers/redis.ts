@@ -15,6 +15,8 @@ export interface TestRedis {
   restart(): Promise<void>;
   /** Sends a signal to the server (SIGSTOP freezes it, SIGCONT thaws it); owned servers only. */
   signal(name: NodeJS.Signals): void;
+  /** When a key expires, in Unix ms (Redis PEXPIRETIME): -1 without expiry, -2 when absent. */
+  expiresAt(key: string): Promise<number>;
   /** Every key and its value(s), for privacy scans. */
   dump(): Promise<string>;
   flush(): Promise<void>;
@@ -31,9 +33,21 @@ async function freePort(): Promise<number> {
   });
 }
 
-async function waitForPing(url: string, timeoutMs = 10_000): Promise<void> {
+/**
+ * Waits until the server answers PING. A client that never connected is left alone (destroying it
+ * throws); one that connected is closed. A server that exits while starting fails at once.
+ */
+async function waitForPing(url: string, child?: ChildProcess, timeoutMs = 10_000): Promise<void> {
   const until = Date.now() + timeoutMs;
+  let exited: number | null | undefined;
+  child?.once("exit", (code) => {
+    exited = code;
+  });
+  child?.once("error", () => {
+    exited = null;
+  });
   for (;;) {
+    if (exited !== undefined) throw new Error(`redis-server exited while starting (code ${exited})`);
     const client = createClient({ url, socket: { reconnectStrategy: false, connectTimeout: 500 } });
     client.on("error", () => {});
     try {
@@ -42,8 +56,8 @@ async function waitForPing(url: string, timeoutMs = 10_000): Promise<void> {
       await client.quit();
       return;
     } catch {
-      client.destroy();
-      if (Date.now() > until) throw new Error(`redis at ${url} did not answer`);
+      if (client.isOpen) client.destroy();
+      if (Date.now() > until) throw new Error(`redis at ${url} did not answer within ${timeoutMs} ms`);
       await new Promise((r) => setTimeout(r, 50));
     }
   }
@@ -71,7 +85,7 @@ export async function startRedis(): Promise<TestRedis> {
       ],
       { stdio: "ignore" },
     );
-    await waitForPing(url);
+    await waitForPing(url, child);
   };
   if (!external) {
     port = await freePort();
@@ -106,6 +120,7 @@ export async function startRedis(): Promise<TestRedis> {
       await stop();
       await launch();
     },
+    expiresAt: (key) => withClient((c) => c.pExpireTime(key)),
     flush: () => withClient(async (c) => void (await c.flushDb())),
     dump: () =>
       withClient(async (c) => {

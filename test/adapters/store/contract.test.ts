@@ -76,6 +76,13 @@ describe.each([
     expect(await store.listRecords("c1", now + 1500)).toHaveLength(0);
   });
 
+  it("a record lives until just before its expiry, and not at it", async () => {
+    const now = Date.now();
+    await store.addRecord(record("c1", "bed 1", now, 118), 1000);
+    expect(await store.listRecords("c1", now + 999)).toHaveLength(1);
+    expect(await store.listRecords("c1", now + 1000)).toHaveLength(0);
+  });
+
   it("forgetTag removes one case only", async () => {
     const now = Date.now();
     const rec = (tag: string, at: number) => ({

@@ -282,3 +282,47 @@ describe("replays across replicas", () => {
     );
   });
 });
+
+describe("keys expire when their record does", () => {
+  it("the log and its start expire at the latest record's expiry; a shorter record does not shorten them", async () => {
+    await redis.flush();
+    const store = new RedisStore(redis.url);
+    await store.connect();
+    cleanups.push(() => store.close());
+    const at = Date.now();
+    const ttl = 12 * 3_600_000;
+    const rec = (offset: number, ttlMs: number) =>
+      store.addRecord(
+        { channel: "k1", tag: "bed 3", at: at + offset, inputs: { sodium: 120 }, results: {}, flags: [] },
+        ttlMs,
+      );
+    await rec(0, ttl);
+    // PEXPIRETIME gives the absolute expiry, so the check does not depend on how long the test took.
+    expect(await redis.expiresAt("solute:log:k1")).toBe(at + ttl);
+    expect(await redis.expiresAt("solute:logstart:k1")).toBe(at + ttl);
+    await rec(1000, ttl);
+    expect(await redis.expiresAt("solute:log:k1")).toBe(at + 1000 + ttl);
+    expect(await redis.expiresAt("solute:logstart:k1")).toBe(at + 1000 + ttl);
+    await rec(2000, 1000);
+    expect(await redis.expiresAt("solute:log:k1")).toBe(at + 1000 + ttl);
+  });
+
+  it("a saved reply and a de-duplication mark carry their TTL", async () => {
+    await redis.flush();
+    const store = new RedisStore(redis.url);
+    await store.connect();
+    cleanups.push(() => store.close());
+    await store.saveReply("r1", "{}", 60_000);
+    await store.firstSeen("e1", 30_000);
+    const { createClient } = await import("redis");
+    const c = createClient({ url: redis.url });
+    await c.connect();
+    const [reply, seen] = [await c.pTTL("solute:reply:r1"), await c.pTTL("solute:seen:e1")];
+    await c.quit();
+    // A TTL only counts down: at most what was set, and set (-1 would mean no expiry).
+    expect(reply).toBeGreaterThan(0);
+    expect(reply).toBeLessThanOrEqual(60_000);
+    expect(seen).toBeGreaterThan(0);
+    expect(seen).toBeLessThanOrEqual(30_000);
+  });
+});
