@@ -116,7 +116,7 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
     const recorded = fixture("channel-teams.json").channel_post_action;
     const res = await post(replay({ ...recorded, value: undefined }, PANEL, connector.serviceUrl));
     expect(res.status).toBe(200);
-    await new Promise((r) => setTimeout(r, 200));
+    // The adapter answers the POST only when its turn has ended: whatever it sent has arrived.
     expect(connector.sent).toHaveLength(0);
   });
 
@@ -145,16 +145,20 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
       connector.serviceUrl,
     );
     await post(activity);
-    await connector.waitFor(1);
+    const [sent] = await connector.waitFor(1);
+    expect(sent!.path).toContain("/v3/conversations/19:group@thread.v2/activities/");
+    const card = (sent!.activity.attachments as { content: AdaptiveCard }[])[0]!.content;
+    expect(cardProblems(card)).toEqual([]);
+    expect(JSON.stringify(card.body)).toContain("calculated 300.0 · effective 286.0 · gap 10.0 mOsm/kg");
   });
 
   it("a redelivered activity is answered once", async () => {
     const activity = replay(fixture("dm-teams.json").dmMessage, PANEL, connector.serviceUrl, "same-id");
-    await post(activity);
-    await post(activity);
-    await connector.waitFor(1);
-    await new Promise((r) => setTimeout(r, 200));
+    expect((await post(activity)).status).toBe(200);
+    expect((await post(activity)).status).toBe(200);
+    // Both turns have ended when their POSTs are answered: one reply, not two.
     expect(connector.sent).toHaveLength(1);
+    expect(JSON.stringify(connector.sent[0]!.activity)).toContain("gap 10.0");
   });
 
   it("malformed JSON → 400, oversize → 413, wrong method → 405, nothing processed", async () => {
@@ -162,7 +166,6 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
     expect((await post({ no: "type" })).status).toBe(400);
     expect((await post({ type: "message", text: "x".repeat(300_000) })).status).toBe(413);
     expect((await fetch(url)).status).toBe(405);
-    await new Promise((r) => setTimeout(r, 100));
     expect(connector.sent).toHaveLength(0);
   });
 
