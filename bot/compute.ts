@@ -1,12 +1,13 @@
 /** Builds the reply for a message with lab values: facts, interpretation, working, cautions. */
 
 import { ANALYTES } from "../core/analytes.js";
-import type { Assessment, Finding } from "../core/assess.js";
+import type { Assessment, AssessOptions, Finding } from "../core/assess.js";
 import { sortFindings } from "../core/findings.js";
 import { fmt, num } from "../core/format.js";
 import type { Reading } from "../core/reader/index.js";
 import type { Result } from "../core/results.js";
-import { checkClaims } from "./check.js";
+import { checkClaims } from "./claims.js";
+import type { BotConfig } from "./commands/context.js";
 import { emptyReply, type Fact, type Reply } from "./reply.js";
 import { keyNumbersOf, verdictFindings, verdictOf, visibleCautionsOf, whyOf } from "./summary.js";
 
@@ -118,4 +119,38 @@ export function computeReply(reading: Reading, a: Assessment, showWorking: boole
   };
   if (keyNumbers && verdict) reply.keyNumbers = keyNumbers;
   return reply;
+}
+
+/**
+ * How the engine reads this message: the channel's ranges, the glucose as written (each criterion
+ * is compared in its own unit), and a lab range printed beside the measured osmolality, which then
+ * takes the place of the configured one (the reading notes say so).
+ */
+export function assessOptions(
+  reading: Reading,
+  config: BotConfig,
+  unitSystem?: "si" | "conventional",
+): AssessOptions {
+  const glucose = reading.values.find((v) => v.key === "glucose");
+  const osm = reading.values.find((v) => v.key === "measuredOsmolality");
+  const printed = osm?.labRange;
+  let osmolalityRange = config.osmolalityRange;
+  if (
+    printed?.low !== undefined &&
+    printed.high !== undefined &&
+    printed.low >= 250 &&
+    printed.high <= 330 &&
+    printed.low < printed.high
+  ) {
+    osmolalityRange = { low: printed.low, high: printed.high };
+    reading.notes.push(
+      `Osmolality judged against the lab's printed range, ${printed.low}–${printed.high} mOsm/kg.`,
+    );
+  }
+  return {
+    osmolalityRange,
+    ...(unitSystem && { unitSystem }),
+    ...(config.anionGapRange && { anionGapRange: config.anionGapRange }),
+    ...(glucose && { glucoseWritten: { value: glucose.written, unit: glucose.unit } }),
+  };
 }

@@ -18,6 +18,15 @@ export type Level = "info" | "warn" | "error";
 
 export type LogSink = (line: string) => void;
 
+/**
+ * A logger as the conversation and its commands receive it (injected, as Bolt takes `logger`): the
+ * process-wide `log` below by default, `silent` or a capturing one in tests.
+ */
+export type Logger = (level: Level, event: string, fields?: LogFields) => void;
+
+/** Drops every line. */
+export const silent: Logger = () => {};
+
 let sink: LogSink = (line) => process.stderr.write(`${line}\n`);
 let quiet = false;
 

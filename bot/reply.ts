@@ -5,7 +5,7 @@
 import type { Assessment } from "../core/assess.js";
 import type { CorrectionTrend } from "../core/correction.js";
 import type { Reading } from "../core/reader/index.js";
-import type { Verdict } from "./check.js";
+import type { Verdict } from "./claims.js";
 
 export type ReplyKind =
   | "result"

@@ -1,19 +1,16 @@
 /**
- * The shift log and the commands that use it: handover (this channel's shift summary by case tag),
- * trend (one case's sodium course, judged by the correction model in core/correction.ts — from
- * the log or from a series written in the message) and forget (one case, or the whole log).
+ * The shift log, shared by the commands that use it (commands/handover.ts, trend.ts, forget.ts and
+ * plan.ts): records, episodes, the sodium points of a case and the logging of tagged calculations.
  * A record holds only numbers, a checked case tag, a time and finding codes. Sodium series live
  * for SOLUTE_SERIES_HOURS (at least 48 h), so the 24 h and 48 h limits are judged on whole days;
  * the handover summarises the last SOLUTE_SHIFT_HOURS.
  */
 import type { Assessment } from "../core/assess.js";
-import { CAUTIONS, SHORT_CAUTIONS } from "../core/cautions.js";
 import { type CorrectionTrend, correctionTrend, type SodiumPoint } from "../core/correction.js";
 import { fmt, num, signed } from "../core/format.js";
 import { checkTag } from "../core/reader/index.js";
-import { clockAt, readSeries } from "../core/series.js";
-import type { Context, Conversation } from "./conversation.js";
-import { errorCode, log } from "./log.js";
+import type { Bot, Context } from "./commands/context.js";
+import { errorCode } from "./log.js";
 import { emptyReply, type Reply } from "./reply.js";
 import type { ResultKey, ShiftRecord } from "./store.js";
 
@@ -24,7 +21,7 @@ export const HIGH_RISK = "risk.high";
 const DEFAULT_SERIES_MS = 48 * HOUR;
 
 /** Finding codes worth handing over. */
-const HANDOVER_FLAGS: Record<string, string> = {
+export const HANDOVER_FLAGS: Record<string, string> = {
   "toxicAlcohol.possible": "toxic alcohol possible",
   "gap.raised": "raised osmolal gap",
   "gap.dependsOnEthanolFactor": "gap raised or not depending on the ethanol factor",
@@ -185,7 +182,7 @@ export function trendJson(t: CorrectionTrend) {
  * Says so when the log starts inside the window being judged: a new deployment, or a store that
  * lost its data (Redis restarted without persistence). Undefined when the whole window is there.
  */
-async function logGap(bot: Conversation, ctx: Context, windowStart: number): Promise<string | undefined> {
+export async function logGap(bot: Bot, ctx: Context, windowStart: number): Promise<string | undefined> {
   let start: number | undefined;
   try {
     start = await bot.store.logStart(ctx.channel);
@@ -199,7 +196,7 @@ async function logGap(bot: Conversation, ctx: Context, windowStart: number): Pro
   return `This channel's log starts ${ago(now - start)}: nothing logged before then is here (a new deployment, or the store was reset without persistence).`;
 }
 
-const unavailable = (what: string): Reply => {
+export const unavailable = (what: string): Reply => {
   const reply = emptyReply(
     "handover",
     `The shift log is unavailable just now, so the ${what} cannot be shown`,
@@ -211,100 +208,19 @@ const unavailable = (what: string): Reply => {
   return reply;
 };
 
-async function load(bot: Conversation, ctx: Context): Promise<ShiftRecord[] | undefined> {
+export async function load(bot: Bot, ctx: Context): Promise<ShiftRecord[] | undefined> {
   try {
     return await bot.store.listRecords(ctx.channel, bot.clock());
   } catch (error) {
-    log("warn", "store.log-unavailable", { code: errorCode(error) });
+    bot.log("warn", "store.log-unavailable", { code: errorCode(error) });
     return undefined;
   }
 }
 
-const TREND_SHORT =
+export const TREND_SHORT =
   "Counts only the sodiums logged or written here: weigh fluids, urine output and symptoms.";
-const TREND_CAUTION =
+export const TREND_CAUTION =
   "The limits are guidance (European guideline, Spasovski 2014; US panel, Verbalis 2013): recheck against the lab's results, count any sodium not logged here, and weigh urine output, fluids given and symptoms.";
-
-export async function handover(ctx: Context, bot: Conversation): Promise<Reply> {
-  // "handover bed 12": that case only, with the chart of its sodium course.
-  const { tag: only, problem } = tagIn(ctx.rest);
-  if (problem) {
-    const reply = emptyReply("handover", "Which case?");
-    reply.problems.push({ code: "tag.refused", message: problem });
-    return reply;
-  }
-  const records = await load(bot, ctx);
-  if (!records) return unavailable("handover");
-  const now = bot.clock();
-  const shiftFrom = now - bot.config.shiftMs;
-  const tags = [...new Set(records.filter((r) => r.at >= shiftFrom).map((r) => r.tag))]
-    .filter((t) => only === undefined || t === only)
-    .sort((a, b) => a.localeCompare(b, "en", { numeric: true }));
-  const hours = Math.round(bot.config.shiftMs / HOUR);
-  if (tags.length === 0 && only !== undefined) {
-    const reply = emptyReply("handover", `Handover: nothing logged for ${only} in the last ${hours} h`);
-    reply.shareable = true;
-    return reply;
-  }
-  const calculations = records.filter((r) => r.at >= shiftFrom && Object.keys(r.inputs).length > 0).length;
-  if (tags.length === 0) {
-    const reply = emptyReply("handover", `Handover: nothing logged in this channel in the last ${hours} h`);
-    reply.notes.push(
-      "Calculations are logged when the message carries a bed or bay tag, like: bed 12 Na 121 glu 6.2 mmol/L urea 3.1 mmol/L osm 254.",
-    );
-    reply.shareable = true;
-    return reply;
-  }
-  const reply = emptyReply(
-    "handover",
-    `Handover: ${tags.length} case${tags.length === 1 ? "" : "s"}, ${calculations} calculation${calculations === 1 ? "" : "s"} in the last ${hours} h`,
-  );
-  const dangers: string[] = [];
-  for (const tag of tags) {
-    const episode = episodeOf(records, tag);
-    const list = episode.records.filter((r) => Object.keys(r.inputs).length > 0);
-    const last = list.at(-1);
-    if (!last) continue;
-    const parts: string[] = [];
-    const i = last.inputs;
-    const r = last.results;
-    if (i.sodium !== undefined) parts.push(`Na ${num(i.sodium)}`);
-    if (r.calculatedOsmolality !== undefined) parts.push(`calculated osm ${fmt(r.calculatedOsmolality)}`);
-    if (r.effectiveOsmolality !== undefined) parts.push(`effective ${fmt(r.effectiveOsmolality)}`);
-    if (r.osmolalGap !== undefined) parts.push(`gap ${fmt(r.osmolalGap)}`);
-    if (r.correctedSodiumKatz !== undefined)
-      parts.push(
-        `corrected Na ${fmt(r.correctedSodiumKatz)} (Katz), ${fmt(r.correctedSodiumHillier ?? r.correctedSodiumKatz)} (Hillier)`,
-      );
-    const began = episode.startedAt !== undefined ? `, episode began ${ago(now - episode.startedAt)}` : "";
-    reply.facts.push({
-      label: `${tag} (${list.length}, latest ${ago(now - last.at)}${began})`,
-      value: parts.join(" · ") || "no results",
-    });
-    const flags = [...new Set(list.flatMap((x) => x.flags))].map((f) => HANDOVER_FLAGS[f]).filter(Boolean);
-    if (flags.length > 0) reply.interpretation.push(`${tag}: ${flags.join("; ")}.`);
-    const trend = episodeTrend(episode, now);
-    if (trend && only !== undefined) reply.charts = [{ tag, trend }];
-    if (trend) {
-      const series = trend.points.map((p) => num(p.sodium)).join(" → ");
-      const verdict = trend.findings[0];
-      reply.interpretation.push(`${tag}: Na ${series}. ${verdict ? verdict.text : ""}`.trim());
-      if (verdict && verdict.severity === "danger")
-        dangers.push(
-          `${tag}: ${verdict.code === "correction.tooFast" ? "correction too fast" : "sodium worsening"}`,
-        );
-    }
-  }
-  if (dangers.length > 0) reply.headline = `Handover — ${dangers.join("; ")}. ${reply.headline}`;
-  const gone = await logGap(bot, ctx, shiftFrom);
-  if (gone) reply.problems.push({ code: "store.logReset", message: gone });
-  reply.notes.push(
-    "forget bed 12 clears one case; forget clears this channel's log. Records clear themselves.",
-  );
-  reply.cautions = [TREND_CAUTION, CAUTIONS.general];
-  reply.shareable = true;
-  return reply;
-}
 
 /** The tag named after a command word: "bed 12", "#4B", "bay 4B"; undefined when none was named. */
 export function tagIn(text: string): { tag?: string; rest: string; problem?: string } {
@@ -317,173 +233,35 @@ export function tagIn(text: string): { tag?: string; rest: string; problem?: str
   return { tag: (m[1] ? `${m[1].toLowerCase()} ` : "") + checked.tag, rest: text.slice(m[0].length) };
 }
 
-const RISK_WORDS =
-  /\bhigh[-\s]?risk\b|\balcohol(?:\s*use)?\b|\bmalnutrition\b|\bmalnourished\b|\bliver disease\b|\bcirrhosis\b|\bhypokal(?:a)?emia\b/i;
-
-export async function trend(ctx: Context, bot: Conversation): Promise<Reply> {
-  const { tag, rest, problem } = tagIn(ctx.rest);
-  const highRisk = RISK_WORDS.test(rest);
-  const series = readSeries(rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
-  let t: CorrectionTrend | undefined;
-  let source: string;
-  let shownName: string | undefined;
-  let logNote: string | undefined;
-  if (series.timed || series.problems.length > 0) {
-    // A series written in the message: answered exactly as a logged one.
-    if (series.points.length < 2) {
-      const reply = emptyReply("trend", "Trend: the series could not be read");
-      reply.problems.push(...series.problems.map(({ code, message }) => ({ code, message })));
-      if (series.problems.length === 0)
-        reply.problems.push({
-          code: "trend.tooFew",
-          message:
-            "Give at least two sodiums, each with its time, like: trend Na 118 at 22:00, 121 at 04:00.",
-        });
-      return reply;
-    }
-    const firstClock = series.firstClock;
-    t = correctionTrend(series.points, {
-      highRisk,
-      ...(firstClock !== undefined && { clock: (h: number) => clockAt(firstClock, h) }),
-    });
-    source = "as written in the message";
-  } else {
-    let name = tag;
-    let refused = problem;
-    const word = rest.trim();
-    if (!name && word && !/\s/.test(word)) {
-      const checked = checkTag(word.replace(/^#/, ""));
-      if (checked.ok) name = checked.tag;
-      else refused = checked.reason;
-    }
-    if (!name) {
-      const reply = emptyReply("trend", "Which case? Name its tag, or write the series");
-      reply.problems.push({
-        code: "trend.noTag",
-        message: `Write the tag, like trend bed 12 — or the series itself: trend Na 118 at 22:00, 121 at 04:00, 126 at 09:30.${refused ? ` ${refused}` : ""}`,
-      });
-      return reply;
-    }
-    const records = await load(bot, ctx);
-    if (!records) return unavailable("trend");
-    const episode = episodeOf(records, name);
-    t = episodeTrend(episode, bot.clock(), highRisk);
-    const gone = t ? await logGap(bot, ctx, bot.clock() - bot.config.shiftMs) : undefined;
-    if (gone) logNote = gone;
-    source =
-      episode.startedAt !== undefined
-        ? `logged for ${name}, episode began ${ago(bot.clock() - episode.startedAt)}`
-        : `logged for ${name}`;
-    if (!t) {
-      const reply = emptyReply("trend", `Trend for ${name}: fewer than two sodiums logged in this episode`);
-      reply.notes.push(
-        `Log sodiums with the tag, like: ${name} Na 121 — or write the series: trend Na 118 at 22:00, 121 at 04:00.`,
-      );
-      return reply;
-    }
-    shownName = name;
-  }
-  const name = tag ?? shownName ?? "this series";
-  const reply = emptyReply("trend", trendHeadline(name, t!));
-  for (const p of t!.points) {
-    const corrected = p.corrected
-      ? ` · corrected ${fmt(p.corrected.katz)} (Katz), ${fmt(p.corrected.hillier)} (Hillier)`
-      : "";
-    reply.facts.push({ label: `hour ${num(p.hours, 1)}`, value: `Na ${num(p.sodium)} mmol/L${corrected}` });
-  }
-  reply.interpretation.push(...t!.findings.map((f) => f.text));
-  if (t!.highRisk && t!.direction === "raising")
-    reply.notes.push("High risk of osmotic demyelination: the 8 mmol/L limit applies in every 24 h.");
-  reply.notes.push(`Series ${source}; windows count from the first sodium (hour 0).`);
-  if (logNote) reply.problems.push({ code: "store.logReset", message: logNote });
-  reply.cautions = [TREND_CAUTION, CAUTIONS.general];
-  reply.visibleCautions = [TREND_SHORT, SHORT_CAUTIONS.general];
-  reply.why = t!.findings.slice(0, 3).map((f) =>
-    f.text
-      .split(/(?<=\.)\s+(?=[A-Z])/)
-      .slice(0, 2)
-      .join(" "),
-  );
-  reply.shareable = true;
-  reply.data = { trend: t! };
-  reply.charts = [{ tag: name, trend: t! }];
-  return reply;
-}
-
-export async function forget(ctx: Context, bot: Conversation): Promise<Reply> {
-  const { tag, problem } = tagIn(ctx.rest);
-  if (problem) {
-    const reply = emptyReply("forget", "Which case?");
-    reply.problems.push({ code: "tag.refused", message: problem });
-    return reply;
-  }
-  try {
-    if (tag) {
-      const n = await bot.store.forgetTag(ctx.channel, tag);
-      const reply = emptyReply(
-        "forget",
-        `${tag} cleared: ${n} record${n === 1 ? "" : "s"} removed; the rest of the log is kept.`,
-      );
-      reply.shareable = true;
-      return reply;
-    }
-    // The whole log goes only when confirmed: "forget all", or the button's confirm dialog.
-    if (!/^\s*(all|everything|confirm|yes)\b/i.test(ctx.rest)) {
-      const records = await bot.store.listRecords(ctx.channel, bot.clock());
-      const cases = new Set(records.map((r) => r.tag)).size;
-      const reply = emptyReply(
-        "forget",
-        `Clear this channel's whole shift log? ${records.length} record${records.length === 1 ? "" : "s"} of ${cases} case${cases === 1 ? "" : "s"}.`,
-      );
-      reply.why = [
-        "Type forget all to clear it (the channel is told, without naming you), or forget bed 12 to remove one case.",
-      ];
-      reply.confirm = true;
-      return reply;
-    }
-    const n = await bot.store.forget(ctx.channel);
-    const reply = emptyReply(
-      "forget",
-      `This channel's shift log was cleared: ${n} record${n === 1 ? "" : "s"} removed.`,
-    );
-    reply.shareable = true;
-    reply.announce = true;
-    return reply;
-  } catch (error) {
-    log("warn", "store.forget-failed", { code: errorCode(error) });
-    return unavailable("log clearing");
-  }
-}
-
 /** How long a record lives: the longer of the shift summary and the sodium series. */
-export function retentionMs(bot: Conversation): number {
+export function retentionMs(bot: Bot): number {
   return Math.max(bot.config.shiftMs, bot.config.seriesMs ?? DEFAULT_SERIES_MS);
 }
 
 /** Starts a new episode for a reused bed ("bed 12 new"), before anything else is logged for it. */
-export async function startEpisode(ctx: Context, bot: Conversation, tag: string): Promise<boolean> {
+export async function startEpisode(ctx: Context, bot: Bot, tag: string): Promise<boolean> {
   try {
     await bot.store.addRecord(marker(ctx.channel, tag, bot.clock(), EPISODE_START), retentionMs(bot));
     return true;
   } catch (error) {
-    log("warn", "store.log-unavailable", { code: errorCode(error) });
+    bot.log("warn", "store.log-unavailable", { code: errorCode(error) });
     return false;
   }
 }
 
 /** Marks a case as high risk for the rest of its episode. */
-export async function markHighRisk(ctx: Context, bot: Conversation, tag: string): Promise<void> {
+export async function markHighRisk(ctx: Context, bot: Bot, tag: string): Promise<void> {
   try {
     await bot.store.addRecord(marker(ctx.channel, tag, bot.clock() - 1, HIGH_RISK), retentionMs(bot));
   } catch (error) {
-    log("warn", "store.log-unavailable", { code: errorCode(error) });
+    bot.log("warn", "store.log-unavailable", { code: errorCode(error) });
   }
 }
 
 const NEW_EPISODE = /(^|\s)new(\s+(episode|patient|admission))?(\s|$)/i;
 
 /** After a calculation with a case tag, log it; a store failure is said, never fatal. */
-export async function logCalculation(ctx: Context, reply: Reply, bot: Conversation): Promise<void> {
+export async function logCalculation(ctx: Context, reply: Reply, bot: Bot): Promise<void> {
   const reading = reply.data?.reading;
   const assessment = reply.data?.assessment;
   if (!reading?.tag) return;
@@ -509,16 +287,9 @@ export async function logCalculation(ctx: Context, reply: Reply, bot: Conversati
     await bot.store.addRecord(recordOf(ctx.channel, reading.tag, at, assessment), retentionMs(bot));
     reply.notes.push(`Logged for the handover under ${reading.tag}.`);
   } catch (error) {
-    log("warn", "store.log-unavailable", { code: errorCode(error) });
+    bot.log("warn", "store.log-unavailable", { code: errorCode(error) });
     reply.notes.push(
       "The shift log is unavailable just now: this calculation was not logged for the handover.",
     );
   }
-}
-
-export function registerShiftCommands(bot: Conversation): void {
-  bot.command(["handover", "handoff"], handover);
-  bot.command(["trend"], trend);
-  bot.command(["forget"], forget);
-  bot.afterCalculation.push((ctx, reply) => logCalculation(ctx, reply, bot));
 }

@@ -1,7 +1,8 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { MemoryStore } from "../../adapters/store/memory.js";
+import { findExpression } from "../../bot/commands/check.js";
 import { loadConfig } from "../../bot/config.js";
-import { Conversation, findExpression } from "../../bot/conversation.js";
+import { Conversation } from "../../bot/conversation.js";
 import { evaluateExpression } from "../../bot/expression.js";
 import type { Store } from "../../bot/store.js";
 import { renderText } from "../../bot/text.js";

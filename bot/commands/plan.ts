@@ -6,8 +6,8 @@
  * set by the words or by the values in the message and stays with the case. The verdict comes
  * first: a plan the limits forbid says so before its numbers.
  */
-import { CAUTIONS, SHORT_CAUTIONS } from "../core/cautions.js";
-import { correctionTrend, planFits, type SodiumPoint } from "../core/correction.js";
+import { CAUTIONS, SHORT_CAUTIONS } from "../../core/cautions.js";
+import { correctionTrend, planFits, type SodiumPoint } from "../../core/correction.js";
 import {
   adrogueMadias,
   freeWaterDeficit,
@@ -15,16 +15,16 @@ import {
   tbwFraction,
   totalBodyWater,
   volumeChange,
-} from "../core/fluids.js";
-import { fmt, num, signed } from "../core/format.js";
-import { readPlan } from "../core/plan-reader.js";
-import { readMessage } from "../core/reader/index.js";
-import type { Result } from "../core/results.js";
-import { readSeries } from "../core/series.js";
-import type { Context, Conversation } from "./conversation.js";
-import { errorCode, log } from "./log.js";
-import { emptyReply, type Reply } from "./reply.js";
-import { episodeOf, markHighRisk, pointsOf } from "./shift.js";
+} from "../../core/fluids.js";
+import { fmt, num, signed } from "../../core/format.js";
+import { readPlan } from "../../core/plan-reader.js";
+import { readMessage } from "../../core/reader/index.js";
+import type { Result } from "../../core/results.js";
+import { readSeries } from "../../core/series.js";
+import { errorCode } from "../log.js";
+import { emptyReply, type Reply } from "../reply.js";
+import { episodeOf, markHighRisk, pointsOf } from "../shift.js";
+import type { Bot, Command, Context } from "./context.js";
 
 const HOUR = 3_600_000;
 /** Hypokalaemia below 3.5 mmol/L raises the risk of osmotic demyelination (REFERENCES §5 [M]). */
@@ -43,7 +43,7 @@ const BASIS: Record<string, string> = {
   "elderly:female": "older woman",
 };
 
-export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
+export async function plan(ctx: Context, bot: Bot): Promise<Reply> {
   const { plan: p, problems, rest } = readPlan(ctx.rest);
   const reading = readMessage(rest, ctx.unitSystem ? { unitSystem: ctx.unitSystem } : {});
   const reply = emptyReply("plan", "Fluid plan");
@@ -139,7 +139,7 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
         points = logged.points;
       }
     } catch (error) {
-      log("warn", "store.log-unavailable", { code: errorCode(error) });
+      bot.log("warn", "store.log-unavailable", { code: errorCode(error) });
       reply.notes.push("The shift log is unavailable: the correction already made could not be counted.");
     }
   }
@@ -301,6 +301,4 @@ export async function plan(ctx: Context, bot: Conversation): Promise<Reply> {
   return reply;
 }
 
-export function registerPlanCommand(bot: Conversation): void {
-  bot.command(["plan", "fluids", "fluid"], plan);
-}
+export const planCommand: Command = { words: ["plan", "fluids", "fluid"], run: plan };

@@ -1,6 +1,7 @@
 /** The help reply: what Solute does, its commands, short examples from an invented night. */
-import { CAUTIONS } from "../core/cautions.js";
-import { emptyReply, type Reply } from "./reply.js";
+import { CAUTIONS } from "../../core/cautions.js";
+import { emptyReply, type Reply } from "../reply.js";
+import type { Command } from "./context.js";
 
 export const HELP_LINES = [
   "Type lab values the way you write them; Solute answers with the calculated and effective osmolality, the osmolal gap, the corrected sodium and what they suggest, with every formula named.",
@@ -28,3 +29,5 @@ export function helpReply(extra: string[] = []): Reply {
   reply.cautions = [CAUTIONS.general];
   return reply;
 }
+
+export const helpCommand: Command = { words: ["help", "?", "hello", "hi"], run: async () => helpReply() };
