@@ -4,6 +4,7 @@
  */
 import { randomBytes } from "node:crypto";
 import { z } from "zod";
+import { ConfigError } from "./errors.js";
 
 const rangeOf = (example: string, min: number, max: number) =>
   z
@@ -120,9 +121,7 @@ export interface Config {
   teams?: TeamsConfig;
 }
 
-export class ConfigError extends Error {
-  override name = "ConfigError";
-}
+export { ConfigError } from "./errors.js";
 
 export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
   const parsed = EnvSchema.safeParse(

@@ -18,6 +18,7 @@
  */
 import { randomBytes } from "node:crypto";
 import { createClient } from "redis";
+import { StoreError } from "../../bot/errors.js";
 import { errorCode, log } from "../../bot/log.js";
 import {
   type ChannelSettings,
@@ -33,9 +34,10 @@ const P = "solute:";
 /** How long a Redis call may take before the caller carries on without it (SOLUTE_STORE_TIMEOUT_MS). */
 export const DEFAULT_TIMEOUT_MS = 300;
 
-export class StoreTimeoutError extends Error {
-  override name = "StoreTimeoutError";
-  readonly code = "store.timeout";
+export class StoreTimeoutError extends StoreError {
+  constructor() {
+    super("store.timeout", "store call timed out");
+  }
 }
 
 export class RedisStore implements Store {
@@ -88,7 +90,7 @@ export class RedisStore implements Store {
     return Promise.race([
       work,
       new Promise<never>((_, reject) => {
-        timer = setTimeout(() => reject(new StoreTimeoutError("store call timed out")), this.timeoutMs);
+        timer = setTimeout(() => reject(new StoreTimeoutError()), this.timeoutMs);
       }),
     ]).finally(() => clearTimeout(timer));
   }
