@@ -1,4 +1,4 @@
-import { readdirSync, readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { dirname, join, normalize } from "node:path";
 import { describe, expect, it } from "vitest";
 
@@ -70,6 +70,17 @@ describe("no circles", () => {
         expect(spec, file).not.toMatch(/conversation\.js$/);
         if (spec.startsWith("./") && !file.endsWith("index.ts")) expect(spec, file).toBe("./context.js");
       }
+    }
+  });
+});
+
+describe("tests mirror the engine", () => {
+  it("every core module has a test file of the same name under test/core", () => {
+    // Exempt: core/index.ts only re-exports; core/results.ts holds only types.
+    const exempt = new Set(["core/index.ts", "core/results.ts"]);
+    for (const file of sources("core").filter((f) => !exempt.has(f))) {
+      const test = file.replace(/^core\//, "test/core/").replace(/\.ts$/, ".test.ts");
+      expect(existsSync(join(root, test)), `${file} has no ${test}`).toBe(true);
     }
   });
 });

@@ -1,0 +1,121 @@
+import { describe, expect, it } from "vitest";
+import { ANALYTES, toCanonical } from "../../core/analytes.js";
+import { assess } from "../../core/assess.js";
+
+const _mg = (id: keyof typeof ANALYTES, v: number) => toCanonical(ANALYTES[id], v, "mg/dL");
+const codes = (a: ReturnType<typeof assess>) => a.findings.map((f) => f.code);
+
+describe("DKA, HHS and mixed states (Umpierrez et al., Diabetes Care 2024 [C])", () => {
+  const dka = {
+    sodium: 132,
+    chloride: 96,
+    bicarbonate: 10,
+    glucose: 25,
+    urea: 6,
+    betaHydroxybutyrate: 5.2,
+    pH: 7.15,
+  };
+
+  it("DKA met, with its severity (ADA 2009 bands, from memory [M])", () => {
+    const f = assess(dka).findings.find((x) => x.code === "dka.met")!;
+    expect(f.severity).toBe("danger");
+    expect(f.text).toMatch(/moderate/);
+  });
+
+  it("a high anion gap with high glucose and low bicarbonate names ketoacidosis first, not a late toxic alcohol", () => {
+    const a = assess({ sodium: 130, chloride: 95, bicarbonate: 10, glucose: 45, urea: 7 });
+    expect(codes(a)).toContain("dka.undecided");
+    expect(a.findings.find((f) => f.code === "dka.undecided")!.text).toMatch(/ketones not given/);
+    expect(codes(a)).not.toContain("pattern.lateAlcohol");
+  });
+
+  it.each([
+    // β-hydroxybutyrate ≥ 3.0; pH < 7.3 and/or bicarbonate < 18; glucose ≥ 11.1 mmol/L (200 mg/dL).
+    [{ ...dka, betaHydroxybutyrate: 3.0 }, "dka.met"],
+    [{ ...dka, betaHydroxybutyrate: 2.9 }, "dka.notMet"],
+    [{ ...dka, pH: 7.3, bicarbonate: 18 }, "dka.notMet"],
+    [{ ...dka, pH: 7.29, bicarbonate: 18 }, "dka.met"],
+    [{ ...dka, pH: 7.3, bicarbonate: 17.9 }, "dka.met"],
+  ] as const)("DKA boundary %#", (inputs, code) => {
+    expect(codes(assess(inputs))).toContain(code);
+  });
+
+  it("the DKA glucose edge is compared in the unit written", () => {
+    const i = { sodium: 135, bicarbonate: 12, pH: 7.2 };
+    const at = (value: number, unit: "mg/dL" | "mmol/L") =>
+      codes(
+        assess(
+          { ...i, glucose: toCanonical(ANALYTES.glucose, value, unit) },
+          { glucoseWritten: { value, unit } },
+        ),
+      );
+    expect(at(200, "mg/dL")).toContain("dka.undecided");
+    expect(at(199, "mg/dL")).not.toContain("dka.undecided");
+    expect(at(11.1, "mmol/L")).toContain("dka.undecided");
+    expect(at(11.0, "mmol/L")).not.toContain("dka.undecided");
+  });
+
+  const hhs = { sodium: 145, glucose: 40, urea: 12, betaHydroxybutyrate: 0.8, pH: 7.38, bicarbonate: 22 };
+  it("HHS met: effective > 300 (2·145 + 40 = 330 [D])", () => {
+    const f = assess(hhs).findings.find((x) => x.code === "hhs.met")!;
+    expect(f.severity).toBe("danger");
+    expect(f.text).toMatch(/ADA 2009 \(effective > 320\): met/);
+  });
+
+  it("33.3 mmol/L meets the 2024 glucose criterion in SI units, 599 mg/dL does not", () => {
+    const i = { sodium: 140, urea: 10, betaHydroxybutyrate: 0.5, pH: 7.4, bicarbonate: 24 };
+    const at = (value: number, unit: "mg/dL" | "mmol/L") =>
+      codes(
+        assess(
+          { ...i, glucose: toCanonical(ANALYTES.glucose, value, unit) },
+          { glucoseWritten: { value, unit } },
+        ),
+      );
+    expect(at(33.3, "mmol/L")).toContain("hhs.met");
+    expect(at(33.2, "mmol/L").join()).not.toMatch(/hhs/);
+    expect(at(600, "mg/dL")).toContain("hhs.met");
+    expect(at(599, "mg/dL").join()).not.toMatch(/hhs/);
+  });
+
+  it("HHS effective and total edges: > 300, > 320 (2024); ADA 2009 > 320; JBDS ≥ 320 without ethanol", () => {
+    const i = { glucose: 35, urea: 0, betaHydroxybutyrate: 0.5, pH: 7.4, bicarbonate: 24 };
+    // 2·Na + 35: Na 132.5 → 300 (not met), 132.6 → 300.2 (met) [D].
+    expect(codes(assess({ ...i, sodium: 132.5 }))).toContain("hhs.notMet");
+    expect(codes(assess({ ...i, sodium: 132.6 }))).toContain("hhs.met");
+    // Total 320 vs 320.1 by the measured osmolality, effective below 300.
+    const low = { ...i, sodium: 125, urea: 10 };
+    expect(codes(assess({ ...low, measuredOsmolality: 320 }))).toContain("hhs.notMet");
+    expect(codes(assess({ ...low, measuredOsmolality: 320.1 }))).toContain("hhs.met");
+    // JBDS: 2·142.5 + 35 + 0 = 320 ≥ 320 → met; ethanol does not count in it.
+    const jbds = assess({ ...i, sodium: 142.5, ethanol: 30 }).findings.find((f) => f.code === "hhs.met")!;
+    expect(jbds.text).toMatch(/UK JBDS .*: met/);
+    expect(assess({ ...i, sodium: 142.4 }).findings.find((f) => f.code === "hhs.met")!.text).toMatch(
+      /UK JBDS .*: not met/,
+    );
+  });
+
+  it("HHS met on a measured osmolality that an unexplained gap inflates: says so", () => {
+    // Na 128, glucose 36, urea 10: calculated 302; measured 336, gap 34; effective 292 [D].
+    const a = assess({
+      sodium: 128,
+      glucose: 36,
+      urea: 10,
+      measuredOsmolality: 336,
+      betaHydroxybutyrate: 0.4,
+      pH: 7.36,
+      bicarbonate: 21,
+    });
+    expect(a.findings.find((f) => f.code === "hhs.met")!.text).toMatch(/unexplained osmolal gap of 34\.0/);
+  });
+
+  it("a mixed DKA and HHS state carries dkaHhs.mixed, never hhs.notMet", () => {
+    const a = assess({ ...hhs, betaHydroxybutyrate: 4.5, pH: 7.2, bicarbonate: 12, glucose: 50 });
+    expect(codes(a)).toEqual(expect.arrayContaining(["dka.met", "dkaHhs.mixed"]));
+    expect(codes(a)).not.toContain("hhs.notMet");
+  });
+
+  it("HHS with ketones, pH or bicarbonate not given says DKA is not excluded", () => {
+    const f = assess({ sodium: 145, glucose: 40, urea: 12 }).findings.find((x) => x.code === "hhs.met")!;
+    expect(f.text).toMatch(/Not given: ketones, pH, bicarbonate/);
+  });
+});

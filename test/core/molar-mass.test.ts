@@ -1,0 +1,34 @@
+import ucum from "@lhncbc/ucum-lhc";
+import { describe, expect, it } from "vitest";
+import { ANALYTES } from "../../core/analytes.js";
+import { molarMass } from "../../core/molar-mass.js";
+
+const _ucumUtils = ucum.UcumLhcUtils.getInstance();
+
+describe("molar masses from IUPAC atomic weights", () => {
+  // REFERENCES.md §2 [D]: molar masses from IUPAC conventional atomic weights.
+  it.each([
+    ["methanol", 32.04],
+    ["ethanol", 46.07],
+    ["acetone", 58.08],
+    ["isopropanol", 60.1],
+    ["ethyleneGlycol", 62.07],
+    ["propyleneGlycol", 76.09],
+    ["mannitol", 182.17],
+  ] as const)("%s is %s g/mol", (id, expected) => {
+    expect(ANALYTES[id].molarMass).toBeCloseTo(expected, 1);
+    expect(Math.abs(ANALYTES[id].molarMass! - expected)).toBeLessThan(0.01);
+  });
+
+  // REFERENCES.md §6 [D]: glucose 180.156, urea 60.056, N2 28.013 (IUPAC atomic weights).
+  it("glucose, urea and urea nitrogen", () => {
+    expect(ANALYTES.glucose.molarMass).toBeCloseTo(180.156, 3);
+    expect(ANALYTES.urea.molarMass).toBeCloseTo(60.056, 3);
+    expect(Math.abs(ANALYTES.bun.molarMass! - 28.013)).toBeLessThan(0.002);
+  });
+
+  it("diethylene glycol, not in the catalogue, checks the formula helper", () => {
+    // REFERENCES.md §2 [D]: diethylene glycol 106.12.
+    expect(molarMass({ C: 4, H: 10, O: 3 })).toBeCloseTo(106.12, 2);
+  });
+});
