@@ -300,7 +300,9 @@ export function createSlackAdapter({
   // again (Socket Mode's answer to a 400); over HTTP plausibleBody has refused it already.
   const processEvent = app.processEvent.bind(app);
   app.processEvent = async (event) => {
-    if (plausiblePayload(event.body)) return processEvent(event);
+    // Tracked from here, before Bolt acknowledges the event: once Slack has its acknowledgement,
+    // the work is already counted, so shutdown (and a test) can wait for every reply to be posted.
+    if (plausiblePayload(event.body)) return track(() => processEvent(event));
     log("warn", "slack.refused", { platform: "slack", code: "malformed", ...(!socket && { status: 400 }) });
     await event.ack();
   };
@@ -353,8 +355,7 @@ export function createSlackAdapter({
         return;
       }
     }
-    // Listeners run inside next(); tracking it lets shutdown wait for replies still being posted.
-    await track(() => next());
+    await next();
   });
 
   const answer = (text: string, channel: string, replay = false): Promise<Reply> =>

@@ -21,6 +21,12 @@ export class MemoryStore implements Store {
 
   constructor(private readonly now: () => number = Date.now) {}
 
+  /** Every key and value held, as text: for privacy scans (JSON.stringify of a Map shows nothing). */
+  dump(): string {
+    const all = { settings: this.settings, records: this.records, seen: this.seen, counters: this.counters };
+    return JSON.stringify(all, (_, v) => (v instanceof Map ? [...v.entries()] : v));
+  }
+
   async getSettings(channel: string): Promise<ChannelSettings> {
     return { ...(this.settings.get(channel) ?? {}) };
   }

@@ -139,3 +139,13 @@ describe.each([
     expect(await store.ready()).toBe(true);
   });
 });
+
+describe("the memory store's dump, for privacy scans", () => {
+  it("shows every value it holds (a Map would stringify to {})", async () => {
+    const store = new MemoryStore();
+    await store.setSettings("c-dump", { unitSystem: "si" });
+    await store.addRecord(record("c-dump", "bed 9", Date.now(), 131), 60_000);
+    const dump = store.dump();
+    for (const part of ["c-dump", "bed 9", "131", "si"]) expect(dump).toContain(part);
+  });
+});

@@ -175,7 +175,7 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
     await post(replay(recorded, `Mrs Penhaligon DOB 4/5/1949 ${PANEL}`, connector.serviceUrl));
     const [sent] = await connector.waitFor(1);
     expect(JSON.stringify(sent!.activity)).not.toContain("Penhaligon");
-    const everything = logs.join("\n") + JSON.stringify(store);
+    const everything = logs.join("\n") + store.dump();
     for (const secret of [
       "Penhaligon",
       "1949",
