@@ -113,3 +113,157 @@ describe("plans in the current window", () => {
     expect(planFits(t, 6.5, false, 122).fits).toBe(false);
   });
 });
+
+// Edges the mutation run (npm run mutate) found unguarded. Derived by hand [D].
+describe("worsening and noise", () => {
+  it("a dip of up to 1 mmol/L in a hyponatraemia is noise, not worsening; beyond 1 it is worsening", () => {
+    expect(codes(pts([0, 125], [6, 124]))).not.toContain("correction.worsening");
+    expect(codes(pts([0, 125], [6, 123.9]))).toEqual(["correction.worsening"]);
+  });
+
+  it("a rise of up to 1 mmol/L in a hypernatraemia is noise; beyond 1 it is worsening", () => {
+    expect(codes(pts([0, 155], [6, 156]))).not.toContain("correction.worsening");
+    expect(codes(pts([0, 155], [6, 156.1]))).toEqual(["correction.worsening"]);
+  });
+
+  it("the worsening text gives the change with its sign and the hours", () => {
+    const [f] = correctionTrend(pts([0, 125], [6, 122]))!.findings;
+    expect(f!.text).toContain("from 125.0 to 122.0 (−3.0 over 6 h)");
+    const [g] = correctionTrend(pts([0, 155], [6, 158]))!.findings;
+    expect(g!.text).toContain("risen from 155.0 to 158.0 (+3.0 over 6 h)");
+  });
+
+  it("a normal sodium that stays normal has no finding and no windows; one that leaves the range is worsening", () => {
+    const steady = correctionTrend(pts([0, 140], [6, 144]))!;
+    expect(steady.direction).toBe("none");
+    expect(steady.findings).toEqual([]);
+    expect(steady.windows).toEqual([]);
+    expect(codes(pts([0, 140], [6, 134.9]))).toEqual(["correction.worsening"]);
+    expect(codes(pts([0, 140], [6, 145.1]))).toEqual(["correction.worsening"]);
+    expect(codes(pts([0, 140], [6, 135]))).toEqual([]);
+    expect(codes(pts([0, 140], [6, 145]))).toEqual([]);
+  });
+});
+
+describe("the series as given", () => {
+  it("needs two values; one is not a trend", () => {
+    expect(correctionTrend(pts([0, 120]))).toBeUndefined();
+  });
+
+  it("puts the values in time order, whatever order they came in", () => {
+    const t = correctionTrend(pts([20, 131], [0, 120]))!;
+    expect(t.baseline).toBe(120);
+    expect(t.findings[0]!.code).toBe("correction.tooFast");
+  });
+
+  it("shows each value with its corrected sodiums and effective osmolality when glucose was measured", () => {
+    const t = correctionTrend([
+      { hours: 0, sodium: 125, glucose: 25.55 },
+      { hours: 6, sodium: 127 },
+    ])!;
+    // Katz 0.288 and Hillier 0.432 per mmol/L of glucose above 5.55: 20 × 0.288 = 5.76, × 0.432 = 8.64.
+    expect(t.points[0]!.corrected!.katz).toBeCloseTo(130.76, 9);
+    expect(t.points[0]!.corrected!.hillier).toBeCloseTo(133.64, 9);
+    expect(t.points[0]!.effective).toBeCloseTo(2 * 125 + 25.55, 9);
+    expect(t.points[1]!.corrected).toBeUndefined();
+  });
+
+  it("a glucose below 5.55 corrects nothing", () => {
+    const t = correctionTrend([
+      { hours: 0, sodium: 125, glucose: 3 },
+      { hours: 6, sodium: 127, glucose: 12 },
+    ])!;
+    expect(t.points[0]!.corrected!.katz).toBe(125);
+    expect(t.points[0]!.corrected!.hillier).toBe(125);
+  });
+
+  it("now is never before the last value", () => {
+    expect(correctionTrend(pts([0, 120], [10, 124]), { nowHours: 5 })!.nowHours).toBe(10);
+    expect(correctionTrend(pts([0, 120], [10, 124]), { nowHours: 30 })!.nowHours).toBe(30);
+  });
+});
+
+describe("windows and the room left", () => {
+  it("a window is open until now reaches its end: at hour 24 exactly the first one has ended", () => {
+    expect(correctionTrend(pts([0, 120], [24, 126]))!.windows).toEqual([
+      expect.objectContaining({ fromHours: 0, toHours: 24, open: false }),
+    ]);
+    expect(correctionTrend(pts([0, 120], [23.9, 126]))!.windows[0]!.open).toBe(true);
+  });
+
+  it("a value at the start of a window is not inside it: the second window starts there", () => {
+    const t = correctionTrend(pts([0, 120], [24, 128], [30, 129]))!;
+    expect(t.windows[1]).toMatchObject({ fromHours: 24, start: 128, change: 1 });
+  });
+
+  it("the room left is the limit less the change so far, until the window's end", () => {
+    const t = correctionTrend(pts([0, 120], [12, 122]))!;
+    expect(t.roomLeft).toEqual({ mmol: 8, untilHours: 24 });
+    const f = t.findings.find((x) => x.code === "correction.windowOpen")!;
+    expect(f.text).toContain("+2.0 so far in hours 0–24; 8.0 more allowed until hour 24");
+    // +2 in 12 h projects to +4 by hour 24: no warning.
+    expect(f.severity).toBe("info");
+    // +4 in 6 h projects to +16: the same room, with a warning.
+    expect(correctionTrend(pts([0, 120], [6, 124]))!.findings.at(-1)!.severity).toBe("warning");
+  });
+
+  it("the projection starts after an hour of the window, from a rise only", () => {
+    expect(correctionTrend(pts([0, 120], [0.9, 121]))!.projected).toBeUndefined();
+    expect(correctionTrend(pts([0, 120], [1, 121]))!.projected).toEqual({ perHour: 1, atWindowEnd: 24 });
+    // No rise since the window's start: nothing to project.
+    expect(correctionTrend(pts([0, 120], [2, 120.5], [4, 120]))!.projected).toBeUndefined();
+  });
+
+  it("a projection above the limit warns; one at the limit does not", () => {
+    // +10 over 24 h is exactly the limit: no warning. A little more and it warns.
+    const at = correctionTrend(pts([0, 120], [12, 125]))!;
+    expect(at.projected!.atWindowEnd).toBeCloseTo(10, 9);
+    expect(at.findings.find((f) => f.code === "correction.windowOpen")!.severity).toBe("info");
+    const over = correctionTrend(pts([0, 120], [12, 125.1]))!;
+    const warn = over.findings.find((f) => f.code === "correction.windowOpen")!;
+    expect(warn.severity).toBe("warning");
+    expect(warn.text).toContain("(+0.42 per hour, a projection) the rise would reach 10.2");
+  });
+
+  it("lowering projects a fall with its sign", () => {
+    const t = correctionTrend(pts([0, 160], [12, 155]))!;
+    expect(t.projected!.perHour).toBeCloseTo(-5 / 12, 9);
+    expect(t.projected!.atWindowEnd).toBeCloseTo(-10, 9);
+  });
+
+  it("too fast names the window, the change and the limit, and, after the first day, where it started", () => {
+    const first = correctionTrend(pts([0, 120], [20, 131]))!.findings[0]!;
+    expect(first.text).toContain("rose +11.0 mmol/L in hours 0–20, above the limit of 10 (European");
+    const later = correctionTrend(pts([0, 120], [24, 130], [40, 139]))!.findings[0]!;
+    expect(later.text).toContain("+9.0 mmol/L in hours 24–40 (from 130.0 at hour 24), above the limit of 8");
+    const risky = correctionTrend(pts([0, 104], [20, 113]))!.findings[0]!;
+    expect(risky.text).toContain("above the limit of 8 at high risk");
+    const lowering = correctionTrend(pts([0, 165], [20, 154]))!.findings[0]!;
+    expect(lowering.text).toContain("fell −11.0 mmol/L in hours 0–20");
+    expect(lowering.text).not.toContain("high risk");
+  });
+
+  it("within limits lists every window with its change and limit", () => {
+    const t = correctionTrend(pts([0, 120], [24, 129], [30, 131]))!;
+    expect(t.findings[0]!.text).toBe(
+      "Within the correction limits so far: +9.0 in hours 0–24 (limit 10); +2.0 in hours 24–30 (limit 8).",
+    );
+  });
+});
+
+describe("planFits without a logged trend", () => {
+  it.each([
+    [134.9, "raising"],
+    [135, "none"],
+    [145, "none"],
+    [145.1, "lowering"],
+  ])("a first sodium of %s is %s", (na, direction) => {
+    expect(planFits(undefined, 1, false, na).direction).toBe(direction);
+  });
+
+  it("uses the last window when none is open", () => {
+    const t = correctionTrend(pts([0, 120], [24, 127]))!;
+    expect(planFits(t, 3, false, 127)).toMatchObject({ already: 7, limit: 10, fits: true, room: 3 });
+    expect(planFits(t, 3.1, false, 127).fits).toBe(false);
+  });
+});
