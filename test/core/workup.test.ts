@@ -1,8 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { ANALYTES, toCanonical } from "../../core/analytes.js";
 import { assess } from "../../core/assess.js";
 
-const _mg = (id: keyof typeof ANALYTES, v: number) => toCanonical(ANALYTES[id], v, "mg/dL");
 const codes = (a: ReturnType<typeof assess>) => a.findings.map((f) => f.code);
 
 describe("the urine work-up (Spasovski 2014 algorithm — from memory [M], to be confirmed)", () => {
@@ -30,5 +28,40 @@ describe("the urine work-up (Spasovski 2014 algorithm — from memory [M], to be
   it("is not applied before hypotonicity is shown", () => {
     const a = assess({ sodium: 125, urineOsmolality: 500, urineSodium: 40 });
     expect(codes(a).filter((c) => c.startsWith("urine."))).toEqual(["urine.notApplied"]);
+  });
+
+  // Edges the mutation run found unguarded [D].
+  const ratioText = (uNa: number, uK: number) =>
+    assess({ ...hypo, urineOsmolality: 500, urineSodium: uNa, urinePotassium: uK }).findings.find(
+      (f) => f.code === "urine.electrolyteRatio",
+    )!.text;
+  it.each([
+    // (uNa + uK) ÷ 120: 1.00 is not above 1; 0.50 is not below 0.5.
+    [70, 50, /about 500 mL a day/],
+    [71, 50, /restriction alone is unlikely/],
+    [40, 20, /about 500 mL a day/],
+    [39, 20, /about 1 L a day/],
+  ] as const)("the ratio's edges: urine Na %s + K %s", (uNa, uK, meaning) => {
+    expect(ratioText(uNa, uK)).toMatch(meaning);
+  });
+
+  it("no ratio without a urine potassium", () => {
+    const a = assess({ ...hypo, urineOsmolality: 500, urineSodium: 80 });
+    expect(codes(a)).not.toContain("urine.electrolyteRatio");
+  });
+
+  it("without urine studies, the next step is named; with only a urine sodium, the osmolality is asked for too", () => {
+    expect(codes(assess(hypo))).toEqual(expect.arrayContaining(["hyponatraemia.nextStep"]));
+    const onlyNa = assess({ ...hypo, urineSodium: 20 });
+    expect(codes(onlyNa)).toEqual(expect.arrayContaining(["hyponatraemia.nextStep", "urine.lowSodium"]));
+    const onlyOsm = assess({ ...hypo, urineOsmolality: 400 });
+    expect(codes(onlyOsm)).toContain("hyponatraemia.nextStep");
+    expect(codes(onlyOsm).filter((c) => c.startsWith("urine."))).toEqual([]);
+  });
+
+  it("urine studies beside a sodium of 135 or more are not called unapplied", () => {
+    expect(codes(assess({ sodium: 134.9, urineOsmolality: 500 }))).toContain("urine.notApplied");
+    expect(codes(assess({ sodium: 135, urineOsmolality: 500 }))).not.toContain("urine.notApplied");
+    expect(codes(assess({ sodium: 125 }))).not.toContain("urine.notApplied");
   });
 });
