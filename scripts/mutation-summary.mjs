@@ -1,0 +1,36 @@
+// Prints the last `npm run mutate` report (reports/mutation/mutation.json) as Markdown: the score of
+// each file, and its surviving mutants grouped by line, so they can be killed or explained in
+// docs/quality.md. Usage: node scripts/mutation-summary.mjs [--survivors]
+import { readFileSync } from "node:fs";
+
+const report = JSON.parse(readFileSync("reports/mutation/mutation.json", "utf8"));
+const showSurvivors = process.argv.includes("--survivors");
+const rows = [];
+const survivors = [];
+let killedAll = 0;
+let validAll = 0;
+for (const [file, { mutants, source }] of Object.entries(report.files)) {
+  const killed = mutants.filter((m) => m.status === "Killed" || m.status === "Timeout").length;
+  const valid = mutants.filter((m) => !["CompileError", "RuntimeError", "Ignored"].includes(m.status)).length;
+  killedAll += killed;
+  validAll += valid;
+  const left = mutants.filter((m) => m.status === "Survived" || m.status === "NoCoverage");
+  rows.push(
+    `| ${file} | ${valid} | ${killed} | ${left.length} | ${((100 * killed) / (valid || 1)).toFixed(1)} % |`,
+  );
+  const lines = source.split("\n");
+  for (const m of left)
+    survivors.push(
+      `- ${file}:${m.location.start.line} ${m.mutatorName} → \`${m.replacement ?? ""}\`: \`${lines[m.location.start.line - 1].trim().slice(0, 90)}\``,
+    );
+}
+console.log("| File | Mutants | Killed | Survived | Score |");
+console.log("|---|---|---|---|---|");
+for (const r of rows) console.log(r);
+console.log(
+  `| all | ${validAll} | ${killedAll} | ${validAll - killedAll} | ${((100 * killedAll) / (validAll || 1)).toFixed(1)} % |`,
+);
+if (showSurvivors) {
+  console.log("\nSurvivors:");
+  for (const s of survivors) console.log(s);
+}
