@@ -139,7 +139,8 @@ export function readCrisis(c: CrisisInputs): Finding[] {
     `effective ${fmt(c.effective)} (> 300: ${effectiveMet ? "yes" : "no"})`,
     total !== undefined ? `${totalName} total ${fmt(total)} (> 320: ${totalMet ? "yes" : "no"})` : "",
   ].filter(Boolean);
-  let caveat = "";
+  // The criterion may rest on an unexplained gap (measured total only), or on whether ethanol counts.
+  let gapCaveat = "";
   if (
     totalMet &&
     !effectiveMet &&
@@ -147,14 +148,20 @@ export function readCrisis(c: CrisisInputs): Finding[] {
     c.gap !== undefined &&
     c.gap >= GAP_LIMIT
   )
-    caveat = ` The measured total includes an unexplained osmolal gap of ${fmt(c.gap)}: without it the total is ${fmt(i.measuredOsmolality - c.gap)}, and the osmolality criterion rests on that gap.`;
+    gapCaveat = ` The measured total includes an unexplained osmolal gap of ${fmt(c.gap)}: without it the total is ${fmt(i.measuredOsmolality - c.gap)}, and the osmolality criterion rests on that gap.`;
+  // Said only when counting ethanol decides the criterion: the effective one is not met, and the
+  // calculated total is above 320 with ethanol and not without it.
+  let ethanolCaveat = "";
   if (
+    !effectiveMet &&
     i.ethanol !== undefined &&
     c.calculatedNoEthanol !== undefined &&
     c.calculatedWithEthanol !== undefined &&
-    i.measuredOsmolality === undefined
+    i.measuredOsmolality === undefined &&
+    c.calculatedWithEthanol > HHS_TOTAL !== c.calculatedNoEthanol > HHS_TOTAL
   )
-    caveat += ` With ethanol counted the calculated total is ${fmt(c.calculatedWithEthanol)}, without it ${fmt(c.calculatedNoEthanol)}: whether the 2024 total counts ethanol is not settled.`;
+    ethanolCaveat = ` With ethanol counted the calculated total is ${fmt(c.calculatedWithEthanol)}, without it ${fmt(c.calculatedNoEthanol)}: whether the 2024 total counts ethanol is not settled.`;
+  const caveat = gapCaveat + ethanolCaveat;
   const older = [
     `ADA 2009 (effective > 320): ${c.effective > ADA2009_EFFECTIVE ? "met" : "not met"}`,
     c.calculatedNoEthanol !== undefined
@@ -178,7 +185,7 @@ export function readCrisis(c: CrisisInputs): Finding[] {
       code: "hhs.met",
       severity: "danger",
       text: `Hyperosmolar hyperglycaemic state criteria met (2024 consensus): glucose ≥ 33.3 mmol/L (600 mg/dL), ${parts.join(", ")}.${notGiven.length > 0 ? ` Not given: ${notGiven.join(", ")} — DKA not excluded until they are.` : ""}${caveat} ${older}.`,
-      brief: `HHS (2024): ${parts.join(", ")}.${notGiven.length > 0 ? ` Next: ${notGiven.join(", ")}.` : ""}${caveat ? " The total rests on an unexplained gap." : ""}`,
+      brief: `HHS (2024): ${parts.join(", ")}.${notGiven.length > 0 ? ` Next: ${notGiven.join(", ")}.` : ""}${gapCaveat ? " The total rests on an unexplained gap." : ""}`,
     });
   } else if (osmMet) {
     out.push({

@@ -119,3 +119,97 @@ describe("DKA, HHS and mixed states (Umpierrez et al., Diabetes Care 2024 [C])",
     expect(f.text).toMatch(/Not given: ketones, pH, bicarbonate/);
   });
 });
+
+// What the crisis findings say, beyond their codes: the mutation run found these unguarded [D].
+describe("what the crisis findings say", () => {
+  const find = (i: Parameters<typeof assess>[0], code: string) =>
+    assess(i).findings.find((f) => f.code === code);
+
+  it("DKA not met names what is missing: ketones below 3.0, or no acidosis with its values", () => {
+    expect(
+      find({ glucose: 20, pH: 7.35, bicarbonate: 22, betaHydroxybutyrate: 1 }, "dka.notMet")!.text,
+    ).toContain("β-hydroxybutyrate 1 < 3.0; no acidosis (pH 7.35, bicarbonate 22)");
+    expect(find({ glucose: 20, betaHydroxybutyrate: 1 }, "dka.notMet")!.text).toContain(
+      "not met: β-hydroxybutyrate 1 < 3.0 (2024",
+    );
+  });
+
+  it("ketones ≥ 3.0 without pH or bicarbonate leave DKA undecided, and say what is not given", () => {
+    expect(find({ glucose: 20, betaHydroxybutyrate: 4 }, "dka.undecided")!.text).toContain(
+      "pH and bicarbonate not given",
+    );
+    expect(find({ glucose: 10, betaHydroxybutyrate: 4 }, "dka.undecided")).toBeUndefined();
+  });
+
+  it("DKA met names its severity and its values", () => {
+    const f = find({ glucose: 20, pH: 7.28, bicarbonate: 17, betaHydroxybutyrate: 4 }, "dka.met")!;
+    expect(f.text).toContain(
+      "(mild by pH and bicarbonate): β-hydroxybutyrate 4 ≥ 3.0, pH 7.28, bicarbonate 17",
+    );
+    expect(f.brief).toBe("DKA (mild): β-hydroxybutyrate 4, pH 7.28, bicarbonate 17 (2024 consensus).");
+    // pH 7.2 alone, without a bicarbonate: moderate by pH (7.0 to below 7.25).
+    expect(find({ glucose: 20, pH: 7.2, betaHydroxybutyrate: 4 }, "dka.met")!.text).toContain("(moderate");
+  });
+
+  it("HHS met says which of ketones, pH and bicarbonate are still to come", () => {
+    const f = find({ sodium: 145, glucose: 40, urea: 5 }, "hhs.met")!;
+    expect(f.text).toContain("effective 330.0 (> 300: yes), calculated total 335.0 (> 320: yes)");
+    expect(f.text).toContain("Not given: ketones, pH, bicarbonate — DKA not excluded");
+    expect(f.brief).toContain("Next: ketones, pH, bicarbonate.");
+    const partly = find({ sodium: 145, glucose: 40, urea: 5, pH: 7.4 }, "hhs.met")!;
+    expect(partly.text).toContain("Not given: ketones, bicarbonate");
+    const all = find(
+      { sodium: 145, glucose: 40, urea: 5, pH: 7.4, bicarbonate: 22, betaHydroxybutyrate: 0.5 },
+      "hhs.met",
+    )!;
+    expect(all.text).not.toContain("Not given");
+  });
+
+  it("a measured total that meets the criterion only through an unexplained gap says so, in full and in brief", () => {
+    // Effective 2·133 + 34 = 300 (not above); calculated 305; measured 340: gap 35.
+    const f = find({ sodium: 133, glucose: 34, urea: 5, measuredOsmolality: 340 }, "hhs.met")!;
+    expect(f.text).toContain("measured total 340.0 (> 320: yes)");
+    expect(f.text).toContain("unexplained osmolal gap of 35.0: without it the total is 305.0");
+    expect(f.brief).toContain("The total rests on an unexplained gap.");
+    // With the effective criterion met, the gap does not decide it: no caveat.
+    const g = find({ sodium: 135, glucose: 34, urea: 5, measuredOsmolality: 340 }, "hhs.met")!;
+    expect(g.text).not.toContain("unexplained osmolal gap");
+    expect(g.brief).not.toContain("unexplained gap");
+  });
+
+  it("the ethanol caveat appears only when counting ethanol decides the total, and never claims a gap", () => {
+    // Effective 2·133 + 34 = 300; total 2·133 + 34 + 15 = 315 without ethanol, 325 with 10 mmol/L.
+    const decided = find({ sodium: 133, glucose: 34, urea: 15, ethanol: 10 }, "hhs.met")!;
+    expect(decided.text).toContain("With ethanol counted the calculated total is 325.0, without it 315.0");
+    expect(decided.brief).not.toContain("unexplained gap");
+    // The effective criterion is met either way: nothing to say about ethanol.
+    const either = find({ sodium: 140, glucose: 34, urea: 5, ethanol: 10 }, "hhs.met")!;
+    expect(either.text).not.toContain("With ethanol counted");
+    expect(either.brief).not.toContain("unexplained gap");
+  });
+
+  it("HHS not met names why: ketones ≥ 3.0, or acidosis", () => {
+    expect(
+      find(
+        { sodium: 145, glucose: 40, urea: 5, pH: 7.35, bicarbonate: 20, betaHydroxybutyrate: 4 },
+        "hhs.notMet",
+      )!.text,
+    ).toContain("but HHS criteria are not met: β-hydroxybutyrate 4 ≥ 3.0.");
+    expect(
+      find(
+        { sodium: 145, glucose: 40, urea: 5, pH: 7.2, bicarbonate: 20, betaHydroxybutyrate: 1 },
+        "hhs.notMet",
+      )!.text,
+    ).toContain("but HHS criteria are not met: pH < 7.3 or bicarbonate < 15.");
+    expect(find({ sodium: 125, glucose: 34, urea: 5 }, "hhs.notMet")!.text).toContain(
+      "without the hyperosmolar criterion of HHS: effective 284.0 (> 300: no), calculated total 289.0 (> 320: no)",
+    );
+  });
+
+  it("without a glucose there is no crisis reading", () => {
+    const codes = assess({ sodium: 145, pH: 7.1, bicarbonate: 10, betaHydroxybutyrate: 5 }).findings.map(
+      (f) => f.code,
+    );
+    expect(codes.filter((c) => /^(dka|hhs|dkaHhs)/.test(c))).toEqual([]);
+  });
+});
