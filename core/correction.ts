@@ -60,6 +60,8 @@ export interface CorrectionWindow {
   exceeded: boolean;
   /** The window has not ended at the last value (or at now). */
   open: boolean;
+  /** The change was reached at the window's end, read off the line between the values either side. */
+  estimated?: true;
 }
 
 export interface CorrectionTrend {
@@ -176,14 +178,15 @@ export function correctionTrend(
     const from = w * WINDOW_HOURS;
     const to = from + WINDOW_HOURS;
     const start = w === 0 ? baseline : valueAt(series, from);
-    const inside = series.filter((p) => p.hours > from && p.hours <= to);
-    const extreme =
-      inside.length === 0
-        ? start
-        : sign > 0
-          ? Math.max(...inside.map((p) => p.v))
-          : Math.min(...inside.map((p) => p.v));
+    const inside = series.filter((p) => p.hours > from && p.hours <= to).map((p) => p.v);
+    // A window that ended between two values is judged at its end too, by the same straight line
+    // that gives the next window its start: 120 at hour 0 and 131 at hour 30 is +8.8 by hour 24.
+    // Without this, a rise measured only either side of hour 24 would count in no window at all.
+    const atEnd = last.hours > to ? valueAt(series, to) : undefined;
+    const values = atEnd === undefined ? inside : [...inside, atEnd];
+    const extreme = values.length === 0 ? start : sign > 0 ? Math.max(...values) : Math.min(...values);
     const change = Math.max(0, sign * (extreme - start));
+    const estimated = atEnd !== undefined && extreme === atEnd && !inside.includes(atEnd);
     const limit =
       direction === "lowering"
         ? LOWER_PER_DAY
@@ -200,6 +203,7 @@ export function correctionTrend(
       limit,
       exceeded: change > limit,
       open: nowHours < to,
+      ...(estimated && { estimated: true as const }),
     });
   }
   // Over 48 h from the start (raising only): ≤ 18, or 16 at high risk.
@@ -217,7 +221,7 @@ export function correctionTrend(
   if (exceeded.length > 0 || twoDayExceeded) {
     const w = exceeded[0];
     const where = w
-      ? `${signed(sign * w.change)} mmol/L in hours ${num(w.fromHours)}–${num(Math.min(w.toHours, nowHours), 1)}${w.fromHours === 0 ? "" : ` (from ${fmt(w.start)} at hour ${num(w.fromHours)})`}, above the limit of ${w.limit}${riskText}`
+      ? `${signed(sign * w.change)} mmol/L in hours ${num(w.fromHours)}–${num(Math.min(w.toHours, nowHours), 1)}${w.fromHours === 0 ? "" : ` (from ${fmt(w.start)} at hour ${num(w.fromHours)})`}${w.estimated ? ` (at hour ${num(w.toHours)}, on the line between the values either side of it)` : ""}, above the limit of ${w.limit}${riskText}`
       : `${signed(twoDayRise)} mmol/L over 48 h, above ${twoDayLimit}${riskText}`;
     findings.push({
       code: "correction.tooFast",

@@ -267,3 +267,33 @@ describe("planFits without a logged trend", () => {
     expect(planFits(t, 3.1, false, 127).fits).toBe(false);
   });
 });
+
+describe("a rise measured only either side of hour 24", () => {
+  it("is judged at hour 24 on the line between the values: 120 at hour 0, 137 at hour 25 is too fast", () => {
+    // 120 + 17 × 24 / 25 = 136.32 at hour 24: + 16.3 in the first 24 h [D]. Counting only values
+    // inside each window, this rise fell into no window and was called within limits.
+    const t = correctionTrend(pts([0, 120], [25, 137]))!;
+    expect(t.windows[0]).toMatchObject({ change: expect.closeTo(16.32, 9), exceeded: true, estimated: true });
+    expect(t.findings[0]!.code).toBe("correction.tooFast");
+    expect(t.findings[0]!.text).toContain("(at hour 24, on the line between the values either side of it)");
+  });
+
+  it("a window with a measured value above the line is judged on the measured value, not estimated", () => {
+    const t = correctionTrend(pts([0, 120], [20, 129], [30, 128]))!;
+    expect(t.windows[0]!.change).toBe(9);
+    expect(t.windows[0]!.estimated).toBeUndefined();
+  });
+
+  it("lowering is judged the same way", () => {
+    // 160 − 14 × 24 / 26 = 147.08 at hour 24: − 12.9 [D].
+    const t = correctionTrend(pts([0, 160], [26, 146]))!;
+    expect(t.windows[0]!.change).toBeCloseTo(12.92, 2);
+    expect(t.findings[0]!.code).toBe("correction.tooFast");
+  });
+
+  it("the open window is not judged at an end it has not reached", () => {
+    const t = correctionTrend(pts([0, 120], [10, 124]), { nowHours: 12 })!;
+    expect(t.windows[0]!.estimated).toBeUndefined();
+    expect(t.windows[0]!.change).toBe(4);
+  });
+});

@@ -469,8 +469,11 @@ describe("correction limits (Spasovski 2014; REFERENCES §8)", () => {
   it.each([
     [23.9, "correction.tooFast"],
     [24, "correction.tooFast"],
-    [24.1, "correction.withinLimits"],
-  ])("a value at hour %s belongs to the first window while hour ≤ 24 (120 → 131)", (hours, code) => {
+    // After hour 24 the first window is judged at its end, on the line between the two values:
+    // + 11 × 24 / 26.3 = + 10.04 (too fast); + 11 × 24 / 26.5 = + 9.96 (within) [D].
+    [26.3, "correction.tooFast"],
+    [26.5, "correction.withinLimits"],
+  ])("120 → 131 at hour %s: the first 24 h, measured or read off the line at hour 24", (hours, code) => {
     expect(
       trendCode([
         { hours: 0, sodium: 120 },
