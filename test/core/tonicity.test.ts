@@ -84,3 +84,87 @@ describe("tonicity and the class of a hyponatraemia", () => {
     expect(codes(a)).toContain("hyponatraemia.nextStep");
   });
 });
+
+// What the tonicity findings say, and the edges the mutation run found unguarded [D].
+describe("effective osmolality and its texts", () => {
+  const find = (i: Parameters<typeof assess>[0], prefix: string) =>
+    assess(i).findings.find((f) => f.code.startsWith(prefix));
+
+  it("from the measured value less urea and alcohols when both are given, else 2·Na + glucose", () => {
+    expect(find({ sodium: 140, glucose: 5, urea: 5, measuredOsmolality: 290 }, "tonicity.")!.text).toBe(
+      "Effective osmolality 285.0 (measured less urea and alcohols): not hypotonic, not above 300.",
+    );
+    expect(find({ sodium: 140, glucose: 5 }, "tonicity.")!.text).toBe(
+      "Effective osmolality 285.0 (2·Na + glucose): not hypotonic, not above 300.",
+    );
+    // Measured and urea without glucose: still from the measured value.
+    expect(find({ sodium: 140, urea: 5, measuredOsmolality: 290 }, "tonicity.")!.text).toContain(
+      "285.0 (measured less urea and alcohols)",
+    );
+    // Sodium alone: nothing to say about tonicity.
+    expect(find({ sodium: 140 }, "tonicity.")).toBeUndefined();
+  });
+
+  it.each([
+    [4.9, "tonicity.low"],
+    [5, "tonicity.normal"],
+  ])("Na 135, glucose %s: effective below 275 is hypotonic", (glucose, code) => {
+    expect(find({ sodium: 135, glucose }, "tonicity.")!.code).toBe(code);
+  });
+
+  it.each([
+    [10, "tonicity.normal"],
+    [10.1, "tonicity.high"],
+  ])("Na 145, glucose %s: effective above 300 is hypertonic", (glucose, code) => {
+    expect(find({ sodium: 145, glucose }, "tonicity.")!.code).toBe(code);
+  });
+
+  it("a hypernatraemia gives its effective osmolality when it is known", () => {
+    expect(find({ sodium: 150, glucose: 5 }, "hypernatraemia")!.text).toBe(
+      "Hypernatraemia (Na 150): plasma is hypertonic (effective osmolality 305.0).",
+    );
+    expect(find({ sodium: 150 }, "hypernatraemia")!.text).toBe(
+      "Hypernatraemia (Na 150): plasma is hypertonic.",
+    );
+  });
+
+  it("an unclassified hyponatraemia gives the calculated effective osmolality, and a high glucose beside it", () => {
+    expect(find({ sodium: 130, glucose: 5 }, "hyponatraemia.")!.text).toContain(
+      "The calculated effective osmolality is 265.0.",
+    );
+    expect(find({ sodium: 130, glucose: 20 }, "hyponatraemia.")!.text).toContain(
+      "is 280.0, with glucose 360 mg/dL (20 mmol/L).",
+    );
+    expect(find({ sodium: 130 }, "hyponatraemia.")!.text).not.toContain("calculated effective");
+  });
+
+  it.each([
+    [9.9, false],
+    [10, true],
+  ])("glucose %s mmol/L is named as the effective solute from 10 (180 mg/dL)", (glucose, named) => {
+    const f = find({ sodium: 130, glucose, urea: 5, measuredOsmolality: 285 }, "hyponatraemia.")!;
+    expect(f.text.includes("glucose"), f.text).toBe(named);
+  });
+
+  it.each([
+    [4.9, false],
+    [5, true],
+  ])("mannitol %s mmol/L is named as the effective solute from 5", (mannitol, named) => {
+    const f = find(
+      { sodium: 130, glucose: 5, urea: 5, mannitol, measuredOsmolality: 285 },
+      "hyponatraemia.",
+    )!;
+    expect(f.text.includes("mannitol"), f.text).toBe(named);
+  });
+
+  it("a normal measured osmolality with a gap larger than a low sodium explains names an unmeasured osmole", () => {
+    // Na 134 (short by 6: a false sodium explains a gap up to 22); calculated 272; measured 295: gap 23.
+    const f = find({ sodium: 134, glucose: 2, urea: 2, measuredOsmolality: 295 }, "hyponatraemia.")!;
+    expect(f.code).toBe("hyponatraemia.isotonic");
+    expect(f.text).toContain(
+      "the raised osmolal gap is more than a low sodium explains — an unmeasured osmole",
+    );
+    const small = find({ sodium: 134, glucose: 2, urea: 2, measuredOsmolality: 280 }, "hyponatraemia.")!;
+    expect(small.text).not.toContain("unmeasured osmole");
+  });
+});
