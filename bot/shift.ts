@@ -164,7 +164,7 @@ export function trendJson(t: CorrectionTrend) {
       sodium: p.sodium,
       ...(p.glucose !== undefined && { glucose: p.glucose }),
     })),
-    windows: t.windows.map(({ fromHours, toHours, change, limit, exceeded, open, start }) => ({
+    windows: t.windows.map(({ fromHours, toHours, change, limit, exceeded, open, start, estimated }) => ({
       fromHours,
       toHours,
       start,
@@ -172,6 +172,7 @@ export function trendJson(t: CorrectionTrend) {
       limit,
       exceeded,
       open,
+      ...(estimated && { estimated }),
     })),
     ...(t.roomLeft && { roomLeft: t.roomLeft }),
     ...(t.projected && { projected: t.projected }),

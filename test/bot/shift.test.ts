@@ -2,9 +2,10 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { MemoryStore } from "../../adapters/store/memory.js";
 import { loadConfig } from "../../bot/config.js";
 import { Conversation } from "../../bot/conversation.js";
-import { ago } from "../../bot/shift.js";
+import { ago, trendJson } from "../../bot/shift.js";
 import type { Store } from "../../bot/store.js";
 import { CAUTIONS } from "../../core/cautions.js";
+import { correctionTrend } from "../../core/correction.js";
 
 const HOUR = 3_600_000;
 let now = Date.UTC(2026, 11, 1, 21, 0);
@@ -298,5 +299,17 @@ describe("helpers", () => {
     expect(ago(0)).toBe("just now");
     expect(ago(5 * 60_000)).toBe("5 min ago");
     expect(ago(3 * HOUR + 20 * 60_000)).toBe("3 h 20 min ago");
+  });
+});
+
+describe("the trend's JSON", () => {
+  it("marks a window judged at its end on the line between two values", () => {
+    const t = correctionTrend([
+      { hours: 0, sodium: 120 },
+      { hours: 25, sodium: 137 },
+    ])!;
+    const json = trendJson(t);
+    expect(json.windows[0]).toMatchObject({ exceeded: true, estimated: true });
+    expect(json.windows[1]).not.toHaveProperty("estimated");
   });
 });
