@@ -297,3 +297,11 @@ describe("a rise measured only either side of hour 24", () => {
     expect(t.windows[0]!.change).toBe(4);
   });
 });
+
+describe("the extreme of a window", () => {
+  it("lowering is judged on the lowest value reached, not the last: 160 → 149 → 152 is − 11", () => {
+    const t = correctionTrend(pts([0, 160], [10, 149], [20, 152]))!;
+    expect(t.windows[0]!.change).toBe(11);
+    expect(t.findings[0]!.code).toBe("correction.tooFast");
+  });
+});
