@@ -134,3 +134,41 @@ describe("glucose-corrected sodium", () => {
     expect(correctedSodium({ sodium: 130, glucose: 4 }, "katz")!.value).toBe(130);
   });
 });
+
+// A formula with an input missing gives nothing, never NaN (the mutation run found these guards
+// unguarded). Each formula is tried with each of its inputs left out in turn [D].
+describe("a missing input gives no result", () => {
+  const full = {
+    sodium: 140,
+    potassium: 4,
+    chloride: 100,
+    bicarbonate: 24,
+    glucose: 5,
+    urea: 5,
+    ethanol: 10,
+    albumin: 30,
+  };
+  const table: [string, (i: typeof full) => unknown, (keyof typeof full)[]][] = [
+    ["calculated osmolality", (i) => calculatedOsmolality(i), ["sodium", "glucose", "urea"]],
+    [
+      "with ethanol × 1.25",
+      (i) => calculatedOsmolalityEthanolPurssell(i),
+      ["sodium", "glucose", "urea", "ethanol"],
+    ],
+    ["Dorwart–Chalmers", (i) => dorwartChalmers(i), ["sodium", "glucose", "urea"]],
+    ["with potassium", (i) => withPotassium(i), ["sodium", "potassium", "glucose", "urea"]],
+    ["older-adult screening", (i) => hooperOlderAdults(i), ["sodium", "potassium", "glucose", "urea"]],
+    ["effective osmolality", (i) => effectiveOsmolality(i), ["sodium", "glucose"]],
+    ["anion gap", (i) => anionGap(i), ["sodium", "chloride", "bicarbonate"]],
+    ["anion gap with K", (i) => anionGap(i, true), ["sodium", "chloride", "bicarbonate", "potassium"]],
+    ["Katz", (i) => correctedSodium(i, "katz"), ["sodium", "glucose"]],
+  ];
+  it.each(table)("%s", (_, formula, needs) => {
+    const whole = formula(full) as { value: number } | undefined;
+    expect(Number.isFinite(whole?.value)).toBe(true);
+    for (const key of needs) {
+      const { [key]: _dropped, ...rest } = full;
+      expect(formula(rest as typeof full), `without ${key}`).toBeUndefined();
+    }
+  });
+});
