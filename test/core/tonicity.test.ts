@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { ANALYTES, toCanonical } from "../../core/analytes.js";
 import { assess } from "../../core/assess.js";
 import { CAUTIONS } from "../../core/cautions.js";
+import { ineffectiveSolutes, readTonicity } from "../../core/tonicity.js";
 
 const mg = (id: keyof typeof ANALYTES, v: number) => toCanonical(ANALYTES[id], v, "mg/dL");
 const codes = (a: ReturnType<typeof assess>) => a.findings.map((f) => f.code);
@@ -166,5 +167,79 @@ describe("effective osmolality and its texts", () => {
     );
     const small = find({ sodium: 134, glucose: 2, urea: 2, measuredOsmolality: 280 }, "hyponatraemia.")!;
     expect(small.text).not.toContain("unmeasured osmole");
+  });
+});
+
+describe("readTonicity: the ineffective solutes and where tonicity comes from [D]", () => {
+  const range = { low: 275, high: 295 };
+
+  it("urea, ethanol and every measured alcohol are ineffective; a zero is not counted", () => {
+    const { total, named } = ineffectiveSolutes({
+      urea: 5,
+      ethanol: 10,
+      methanol: 2,
+      ethyleneGlycol: 1,
+      isopropanol: 1.5,
+      acetone: 0.5,
+      propyleneGlycol: 1,
+      mannitol: 20,
+    });
+    expect(total).toBe(21);
+    expect(named).toEqual([
+      "urea 5",
+      "ethanol 10",
+      "methanol 2",
+      "ethylene glycol 1",
+      "isopropanol 1.5",
+      "acetone 0.5",
+      "propylene glycol 1",
+    ]);
+    expect(ineffectiveSolutes({ urea: 0, ethanol: 0 })).toEqual({ total: 0, named: [] });
+  });
+
+  it("from the measured value less the ineffective solutes, unless a gap of 10 or more may be an alcohol", () => {
+    const i = { sodium: 140, glucose: 5, urea: 5, measuredOsmolality: 295 };
+    expect(readTonicity(i, 5, range)).toMatchObject({ value: 290, from: "measured" });
+    expect(readTonicity(i, 9.9, range)).toMatchObject({ value: 290, from: "measured" });
+    expect(readTonicity(i, 10, range)).toMatchObject({ value: 285, from: "calculated" });
+    // Without a urea the measured value cannot be corrected: 2·Na + glucose.
+    expect(
+      readTonicity({ sodium: 140, glucose: 5, measuredOsmolality: 295 }, undefined, range),
+    ).toMatchObject({ value: 285, from: "calculated" });
+    // Without a glucose, the measured value is all there is.
+    expect(readTonicity({ sodium: 140, urea: 5, measuredOsmolality: 295 }, 10, range)).toMatchObject({
+      value: 290,
+      from: "measured",
+    });
+    // Mannitol is an effective osmole: it counts in 2·Na + glucose + mannitol.
+    expect(readTonicity({ sodium: 140, glucose: 5, mannitol: 10 }, undefined, range)).toMatchObject({
+      value: 295,
+      from: "calculated",
+    });
+    // Without a sodium: no value, no finding.
+    const none = readTonicity({ glucose: 5 }, undefined, range);
+    expect(none.value).toBeUndefined();
+    expect(none.findings).toEqual([]);
+  });
+
+  it.each([
+    [289.9, true],
+    [290, false],
+  ])("hypotonic in effect: Na 130, urea 20 (15 above normal), measured %s", (measured, hypotonic) => {
+    // 290 − 15 = 275, the range's low end: not below it.
+    const t = readTonicity({ sodium: 130, glucose: 5, urea: 20, measuredOsmolality: measured }, 5, range);
+    expect(t.findings.some((f) => f.code === "osmolality.ineffectiveExcess")).toBe(hypotonic);
+  });
+
+  it("names ethanol among what holds the measured value up", () => {
+    // Calculated with ethanol 2·130 + 5 + 5 + 20 = 290, measured 294: gap 4; 294 − (30 − 5) = 269.
+    const t = readTonicity(
+      { sodium: 130, glucose: 5, urea: 5, ethanol: 20, measuredOsmolality: 294 },
+      4,
+      range,
+    );
+    const f = t.findings.find((x) => x.code === "hyponatraemia.hypotonic")!;
+    expect(f.text).toContain("held up by urea 5, ethanol 20 mmol/L");
+    expect(f.text).toContain("effective 269.0");
   });
 });
