@@ -216,3 +216,65 @@ describe("invariants (property tests)", () => {
     );
   });
 });
+
+// Edges and texts the mutation run found unguarded [D].
+describe("assess: what the mutation run found unguarded", () => {
+  const codes = (i: Parameters<typeof assess>[0]) => assess(i).findings.map((f) => f.code);
+  const text = (i: Parameters<typeof assess>[0], code: string) =>
+    assess(i).findings.find((f) => f.code === code)?.text;
+
+  it("the glucose-correction caution from a glucose above 100 mg/dL", () => {
+    expect(assess({ sodium: 140, glucose: 5.5 }).cautionIds).not.toContain("glucoseCorrection");
+    expect(assess({ sodium: 140, glucose: 5.6 }).cautionIds).toContain("glucoseCorrection");
+  });
+
+  it("a gap raised with ethanol ÷ 4.61 but not with ÷ 3.7 says it depends on the factor", () => {
+    // Calculated 310 (ethanol molar) or 315 (× 1.25); measured 321: gap 11 or 6.
+    expect(
+      text(
+        { sodium: 140, glucose: 5, urea: 5, ethanol: 20, measuredOsmolality: 321 },
+        "gap.dependsOnEthanolFactor",
+      ),
+    ).toBe(
+      "Whether the gap is raised depends on the ethanol factor: 11.0 with mg/dL ÷ 4.61, 6.0 with ÷ 3.7.",
+    );
+    expect(codes({ sodium: 140, glucose: 5, urea: 5, ethanol: 20, measuredOsmolality: 330 })).not.toContain(
+      "gap.dependsOnEthanolFactor",
+    );
+  });
+
+  it("a measured mannitol accounts for part of the gap; the rest is the residual", () => {
+    const i = { sodium: 140, glucose: 5, urea: 5, mannitol: 10, measuredOsmolality: 320 };
+    expect(text(i, "gap.measuredAlcohols")).toContain("about 10.0 of the gap; 20.0 is left unexplained");
+    expect(text(i, "toxicAlcohol.possible")).toContain("unexplained osmolal gap of 20.0");
+  });
+
+  it.each([
+    [3.9, "ketoacidosis, lactic acidosis or renal failure first"],
+    [4, "lactic acidosis first"],
+  ])("a raised anion gap with a normal osmolal gap and lactate %s: %s", (lactate, first) => {
+    const i = {
+      sodium: 140,
+      chloride: 100,
+      bicarbonate: 15,
+      glucose: 5,
+      urea: 5,
+      measuredOsmolality: 292,
+      lactate,
+    };
+    expect(text(i, "pattern.lateAlcohol")).toContain(`normal osmolal gap: ${first}`);
+  });
+
+  it("both gaps raised: ketoacidosis explains part when it is present", () => {
+    const base = { sodium: 140, chloride: 100, bicarbonate: 10, urea: 5, measuredOsmolality: 320 };
+    expect(text({ ...base, glucose: 20, pH: 7.1, betaHydroxybutyrate: 5 }, "pattern.bothRaised")).toContain(
+      "ketoacidosis explains part of both",
+    );
+    expect(text({ ...base, glucose: 20, pH: 7.1 }, "pattern.bothRaised")).toContain(
+      "ketoacidosis explains part of both",
+    );
+    expect(text({ ...base, glucose: 5 }, "pattern.bothRaised")).toContain(
+      "a toxic alcohol being metabolised, or ketoacidosis",
+    );
+  });
+});
