@@ -1,8 +1,5 @@
-import ucum from "@lhncbc/ucum-lhc";
 import { describe, expect, it } from "vitest";
 import { ANALYTE_IDS, ANALYTES } from "../../core/analytes.js";
-
-const _ucumUtils = ucum.UcumLhcUtils.getInstance();
 
 describe("codes", () => {
   // REFERENCES.md §7 [C]: LOINC codes.

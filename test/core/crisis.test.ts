@@ -2,7 +2,6 @@ import { describe, expect, it } from "vitest";
 import { ANALYTES, toCanonical } from "../../core/analytes.js";
 import { assess } from "../../core/assess.js";
 
-const _mg = (id: keyof typeof ANALYTES, v: number) => toCanonical(ANALYTES[id], v, "mg/dL");
 const codes = (a: ReturnType<typeof assess>) => a.findings.map((f) => f.code);
 
 describe("DKA, HHS and mixed states (Umpierrez et al., Diabetes Care 2024 [C])", () => {

@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { readMessage } from "../../core/reader/index.js";
 
-const _GLU_MG = 1 / 18.0156; // glucose mg/dL → mmol/L, REFERENCES.md §6 [D]
 const codes = (m: string, units?: "si" | "conventional") =>
   readMessage(m, units ? { unitSystem: units } : {}).problems.map((p) => p.code);
 

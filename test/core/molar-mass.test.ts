@@ -1,9 +1,6 @@
-import ucum from "@lhncbc/ucum-lhc";
 import { describe, expect, it } from "vitest";
 import { ANALYTES } from "../../core/analytes.js";
 import { molarMass } from "../../core/molar-mass.js";
-
-const _ucumUtils = ucum.UcumLhcUtils.getInstance();
 
 describe("molar masses from IUPAC atomic weights", () => {
   // REFERENCES.md §2 [D]: molar masses from IUPAC conventional atomic weights.

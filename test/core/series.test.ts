@@ -1,16 +1,6 @@
-/**
- * The correction model at its edges. Limits: European guideline (Spasovski et al., Eur J
- * Endocrinol 2014 [C]) ≤ 10 mmol/L in the first 24 h, ≤ 8 in each 24 h after, ≤ 18 over 48 h [D];
- * high risk 8 per 24 h (Verbalis 2013, from memory [M]); lowering a chronic hypernatraemia about
- * 10 per 24 h (REFERENCES §5 [M/P]). Check values derived by hand [D].
- */
+/** A sodium series written in one message (core/series.ts): clock times or hours, in the order written. */
 import { describe, expect, it } from "vitest";
-import { correctionTrend, type SodiumPoint } from "../../core/correction.js";
 import { readSeries } from "../../core/series.js";
-
-const _pts = (...pairs: [number, number][]): SodiumPoint[] =>
-  pairs.map(([hours, sodium]) => ({ hours, sodium }));
-const _codes = (p: SodiumPoint[], o = {}) => correctionTrend(p, o)!.findings.map((f) => f.code);
 
 describe("a series written in one message", () => {
   it("clock times roll over midnight in the order written", () => {
