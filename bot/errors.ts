@@ -23,6 +23,3 @@ export class ConfigError extends SoluteError {
 
 /** The store did not answer in time (`store.timeout`) or failed (`store.failed`). */
 export class StoreError extends SoluteError {}
-
-/** A platform's authentication could not be checked (`teams.auth-keys-unavailable`, …). */
-export class PlatformAuthError extends SoluteError {}

@@ -25,7 +25,17 @@ export function num(value: number, decimals = 2): string {
   if (Number.isInteger(value) && Math.abs(value) < 1e9) return value === 0 ? "0" : String(value);
   const f = POW[decimals] ?? 10 ** decimals;
   const n = Math.round(Math.abs(value) * f);
-  return value < 0 && n !== 0 ? `-${n / f}` : `${n / f}`;
+  const sign = value < 0 && n !== 0 ? "-" : "";
+  // Whole and fraction as integers: turning a fractional double into text is several times slower.
+  const whole = Math.floor(n / f);
+  let frac = n - whole * f;
+  if (frac === 0) return `${sign}${whole}`;
+  let places = decimals;
+  while (frac % 10 === 0) {
+    frac /= 10;
+    places--;
+  }
+  return `${sign}${whole}.${String(frac).padStart(places, "0")}`;
 }
 
 /** A signed difference: "+3.2", "−1.0" (true minus sign for legibility). */

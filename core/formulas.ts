@@ -235,17 +235,32 @@ export function glucoseMgPerDl(glucoseMmol: number): number {
 export function correctedSodium(i: LabInputs, method: "katz" | "hillier"): Result | undefined {
   const { sodium: na, glucose: glu } = i;
   if (na === undefined || glu === undefined) return undefined;
-  const factor = method === "katz" ? KATZ_FACTOR : HILLIER_FACTOR;
+  const m = CORRECTION_METHODS[method];
   const mg = glucoseMgPerDl(glu);
   const excess = Math.max(0, mg - GLUCOSE_BASELINE_MG_DL);
-  const name = method === "katz" ? "Katz" : "Hillier";
   return result(
-    `correctedSodium.${method}`,
-    `Sodium corrected for glucose (${name})`,
-    `${name}: Na + ${factor} × (glucose mg/dL − 100) ÷ 100`,
-    `${num(na)} + ${factor} × (${num(mg, 1)} − 100) ÷ 100${mg <= GLUCOSE_BASELINE_MG_DL ? " (glucose ≤ 100: no correction)" : ""}`,
-    na + (factor * excess) / 100,
-    method === "katz" ? "Katz, NEJM 1973;289:843" : "Hillier et al., Am J Med 1999;106:399",
+    m.id,
+    m.label,
+    m.formula,
+    `${num(na)} + ${m.factor} × (${num(mg, 1)} − 100) ÷ 100${mg <= GLUCOSE_BASELINE_MG_DL ? " (glucose ≤ 100: no correction)" : ""}`,
+    na + (m.factor * excess) / 100,
+    m.source,
     "mmol/L",
   );
+}
+
+/** The two published factors, with their texts built once. */
+const CORRECTION_METHODS = {
+  katz: correctionMethod("katz", "Katz", KATZ_FACTOR, "Katz, NEJM 1973;289:843"),
+  hillier: correctionMethod("hillier", "Hillier", HILLIER_FACTOR, "Hillier et al., Am J Med 1999;106:399"),
+};
+
+function correctionMethod(method: string, name: string, factor: number, source: string) {
+  return {
+    id: `correctedSodium.${method}`,
+    label: `Sodium corrected for glucose (${name})`,
+    formula: `${name}: Na + ${factor} × (glucose mg/dL − 100) ÷ 100`,
+    factor,
+    source,
+  };
 }

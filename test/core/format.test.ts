@@ -21,6 +21,11 @@ describe("number formatting", () => {
     expect(num(-0)).toBe("0");
     expect(num(-3)).toBe("-3");
     expect(num(12_345_678_901)).toBe("12345678901");
+    expect(num(0.05)).toBe("0.05");
+    expect(num(10.1)).toBe("10.1");
+    expect(num(-2.104)).toBe("-2.1");
+    expect(num(100.004)).toBe("100");
+    expect(num(0.1234567, 6)).toBe("0.123457");
   });
   it("true minus signs before numbers, nowhere else", () => {
     expect(typeset("-5 at the start, gap -3.2 (-4) a/-1")).toBe("−5 at the start, gap −3.2 (−4) a/−1");
@@ -51,6 +56,8 @@ describe("number formatting", () => {
         const expected = Number(v.toFixed(d));
         expect(Number(fmt(v, d))).toBeCloseTo(Object.is(expected, -0) ? 0 : expected, 9);
         expect(Number(num(v, d))).toBeCloseTo(expected, 9);
+        // The text itself, trailing zeros dropped: what JavaScript prints for the rounded number.
+        expect(num(v, d)).toBe(String(expected));
       }),
     );
   });
