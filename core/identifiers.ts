@@ -176,6 +176,28 @@ function isWord(text: string | undefined): boolean {
   return text !== undefined && /^[A-Za-z][A-Za-z'’]{0,30}(-[A-Za-z'’]{1,30}){0,2}$/.test(text);
 }
 
+/** After an honorific any word is taken for a name; after a label ("pt:"), a capitalised one. */
+function isNameAt(
+  tokens: readonly Token[],
+  k: number,
+  afterHonorific: boolean,
+  isKnownWord: (lower: string) => boolean,
+): boolean {
+  const t = tokens[k]?.text;
+  return (
+    t !== undefined && !isKnownWord(t.toLowerCase()) && (afterHonorific ? isWord(t) : isCapitalisedWord(t))
+  );
+}
+
+/** Every word that can start a multi-token identifier below; months also with a full stop. */
+const LISTED_WORDS = new Set([
+  ...MONTHS,
+  ...[...MONTHS].map((m) => `${m}.`),
+  ...HONORIFICS,
+  ...NAME_LABELS,
+  ...NUMBER_LABELS,
+]);
+
 /**
  * Finds identifiers in a token list. `isKnownWord` tells lab vocabulary ("Na", "glucose") apart
  * from a name that follows an honorific.
@@ -254,8 +276,12 @@ export function findIdentifiers(
       }
     }
 
+    // The checks below start from a listed word (a month, an honorific, a label) or from a
+    // number of two or three digits (an age); any other token is done.
+    if (digit ? !allDigits : !LISTED_WORDS.has(low)) continue;
+
     // A month name with a day or year beside it: "12 March", "March 12, 1950", "Jan 1950".
-    if (!digit && low.length <= 10 && MONTHS.has(low.endsWith(".") ? low.slice(0, -1) : low)) {
+    if (!digit && MONTHS.has(low.endsWith(".") ? low.slice(0, -1) : low)) {
       const before = i > 0 && /^\d{1,4}(st|nd|rd|th)?$/i.test(tokens[i - 1]!.text);
       const after = i + 1 < tokens.length && /^\d{1,4}(st|nd|rd|th)?$/i.test(tokens[i + 1]!.text);
       if (before || after) {
@@ -269,18 +295,11 @@ export function findIdentifiers(
     }
 
     // An honorific or a name label followed by capitalised words: "Mr Smith", "pt: John Smith".
-    const nameAt = (k: number) => {
-      const t = tokens[k]?.text;
-      return (
-        t !== undefined &&
-        !isKnownWord(t.toLowerCase()) &&
-        (HONORIFICS.has(low) ? isWord(t) : isCapitalisedWord(t))
-      );
-    };
-    if (HONORIFICS.has(low) || (NAME_LABELS.has(low) && nameAt(i + 1))) {
+    const honorific = HONORIFICS.has(low);
+    if (honorific || (NAME_LABELS.has(low) && isNameAt(tokens, i + 1, honorific, isKnownWord))) {
       let last = i;
-      while (last - i < 3 && nameAt(last + 1)) last++;
-      if (last > i || HONORIFICS.has(low)) {
+      while (last - i < 3 && isNameAt(tokens, last + 1, honorific, isKnownWord)) last++;
+      if (last > i || honorific) {
         if (last > i) hit("name", i, last);
         i = last;
         continue;

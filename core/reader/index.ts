@@ -173,6 +173,7 @@ interface Cell {
 }
 
 const NO_INDEXES: ReadonlySet<number> = new Set();
+const NO_MASK = new Uint8Array(0);
 const NO_SPECIMEN_LIST: Specimen[] = [];
 const NO_SPECIMENS: ReadonlyMap<number, never> = new Map<number, never>();
 
@@ -191,7 +192,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   // Identifiers are found on the message as written; their characters are never read or echoed.
   const idTokens = tokenize(norm);
   const hits = findIdentifiers(idTokens, isKnownWord);
-  const maskedChars = new Uint8Array(hits.length === 0 ? 0 : norm.length);
+  const maskedChars = hits.length === 0 ? NO_MASK : new Uint8Array(norm.length);
   for (const h of hits) {
     // The whole run of characters without a space around an identifier is masked: nothing is
     // read out of "k1.{a@a.aa".
