@@ -1049,8 +1049,12 @@ function mergeDuplicates(values: ReadValue[], problems: Problem[]): ReadValue[] 
   const kept: ReadValue[] = [];
   for (const [key, list] of byKey) {
     const first = list.find((v) => v.specimen === "serum") ?? list[0]!;
-    const agree = list.every(
-      (v) => Math.abs(v.canonical - first.canonical) <= 0.01 * Math.max(1, Math.abs(first.canonical)),
+    // The same number in the same unit, or the same value in two units (within the rounding of a
+    // conversion, 1 %). Two different numbers in one unit are two results, however close.
+    const agree = list.every((v) =>
+      v.unit === first.unit
+        ? v.written === first.written
+        : Math.abs(v.canonical - first.canonical) <= 0.01 * Math.max(1, Math.abs(first.canonical)),
     );
     if (agree) {
       kept.push(first);

@@ -171,6 +171,13 @@ describe("problems, never silent", () => {
     expect(readMessage("Na 128 Na 128").inputs).toEqual({ sodium: 128 });
     expect(codes("urea 10 mmol/L BUN 40")).toEqual(["value.conflict"]);
     expect(codes("urea 10 mmol/L BUN 28")).toEqual([]);
+    // Close is not the same: 128 and 129 are two results, and neither is chosen silently.
+    expect(readMessage("Na 128 Na 129").inputs).toEqual({});
+    expect(codes("Na 128 Na 129")).toEqual(["value.conflict"]);
+    expect(readMessage("Na 128 Na 128.0 mmol/L").inputs).toEqual({ sodium: 128 });
+    // One value in two units is one value (540 mg/dL is 29.97 mmol/L, within a conversion's rounding).
+    expect(readMessage("glu 540 mg/dL glucose 30 mmol/L").inputs.glucose).toBeCloseTo(540 / 18.0156, 6);
+    expect(codes("glu 540 mg/dL glucose 31 mmol/L")).toEqual(["value.conflict"]);
   });
 
   it("reports unknown words, orphan numbers and names without numbers, never by word number", () => {
@@ -310,5 +317,179 @@ describe("properties", () => {
       ]),
     ) as LabInputs;
     expect(readMessage(renderInputs(all)).inputs).toEqual(all);
+  });
+});
+
+describe("what the reader says (each problem's words, as a resident reads them)", () => {
+  // Invented messages. Every text below was read and judged right before it was written here;
+  // the conditions inside them (one line or several, one name or several) are what is tested.
+  const said = (m: string, units?: "si" | "conventional") =>
+    readMessage(m, units ? { unitSystem: units } : {}).problems.map(
+      (p) => `${p.code}${p.line ? `@${p.line}` : ""}: ${p.message}`,
+    );
+  const cases: [string, string[], ("si" | "conventional")?][] = [
+    [
+      "128",
+      ["number.orphan: A number with no name before it was not used. Write the name first, like Na 128."],
+    ],
+    [
+      "Na 128\n140\nK 4\n99",
+      [
+        "number.orphan: 2 lines (2 and 4) have a number with no name before it, so it was not used. Write the name first, like Na 128.",
+      ],
+    ],
+    [
+      "Na 128\n140",
+      [
+        "number.orphan: Line 2 has a number with no name before it, so it was not used. Write the name first, like Na 128.",
+      ],
+    ],
+    [
+      "Na 120 blorp",
+      [
+        "word.unknown: Some words after sodium 120 were not understood and not used. Write values as name, number, unit — like Na 128, glucose 540 mg/dL.",
+      ],
+    ],
+    [
+      "blorp Na 120",
+      [
+        "word.unknown: Some words before the first value were not understood and not used. Write values as name, number, unit — like Na 128, glucose 540 mg/dL.",
+      ],
+    ],
+    [
+      "Na 120\nblorp\nK 4 zzz",
+      [
+        "word.unknown: 2 lines (2 and 3) were not understood (in part or whole) and not used. Write values as name, number, unit — like Na 128, glucose 540 mg/dL.",
+      ],
+    ],
+    [
+      "Na 120\nK 4 zzz",
+      [
+        "word.unknown: Line 2 was not understood (in part or whole) and not used. Write values as name, number, unit — like Na 128, glucose 540 mg/dL.",
+      ],
+    ],
+    [
+      "Na 128 131\nK 4.0 4.2",
+      [
+        "columns.ambiguous: Sodium and potassium have more than one result (sodium 128 and 131), so they were not used: which is the current one? Send one result per name, or paste the header with the collection dates.",
+      ],
+    ],
+    [
+      "Na 128 131\nK 4.0",
+      [
+        "columns.ambiguous: Sodium has more than one result (sodium 128 and 131), so it was not used: which is the current one? Send one result per name, or paste the header with the collection dates.",
+        "columns.short: Potassium has one result where other rows have 2, so it is not clear which time it is from: not used.",
+      ],
+    ],
+    [
+      "Na (135-145)",
+      ["value.onlyRange@1: Sodium: only a reference range was found, no result, so it was not used."],
+    ],
+    ["Na", ["value.missing@1: Sodium has no number after it, so it was not used."]],
+    [
+      "urine Na 40 serum",
+      [
+        "specimen.conflict@1: Sodium 40 is labelled with two specimens (serum/plasma and urine): not used. Say which.",
+      ],
+    ],
+    [
+      "Na 1,200",
+      [
+        "value.ambiguousNumber@1: Sodium 1,200: is the comma a decimal point or a thousands separator? Write it without the comma (e.g. 1200 or 1.2).",
+      ],
+    ],
+    ["glucose 90 mg", ["unit.incomplete@1: Glucose 90: per what volume? Write mg/dL, mg/L or g/L."]],
+    ["Na 140 mmol/L mg/dL", ["unit.conflict@1: Sodium 140 has two different units: write one."]],
+    [
+      "Na 140 mg/dL",
+      ["unit.notForAnalyte@1: Sodium 140 mg/dL: sodium is not given in mg/dL. Use mmol/L or mEq/L."],
+    ],
+    [
+      "glu >33.3 mmol/L",
+      [
+        "value.censored@1: Glucose >33.3 is above the measuring range: it cannot be calculated with. Ask the lab for the diluted value.",
+      ],
+    ],
+    [
+      "glu <1 mmol/L",
+      ["value.censored@1: Glucose <1 is below the measuring range: it cannot be calculated with."],
+    ],
+    [
+      "Na 400",
+      [
+        "value.implausible@1: Sodium 400 mmol/L is outside 90–200 mmol/L, so it was not used. Check for a typo.",
+      ],
+    ],
+    [
+      "glu 540",
+      [
+        "unit.ambiguous@1: Glucose 540: no unit — write mg/dL (the only plausible one), or set the channel's units.",
+      ],
+    ],
+    [
+      "urea 14",
+      [
+        "unit.ambiguous@1: Urea 14: no unit — write mmol/L, or mg/dL with urea or BUN named (BUN is urea nitrogen), or set the channel's units.",
+      ],
+    ],
+    [
+      "glu 540",
+      [
+        "unit.ambiguous@1: Glucose 540 has no unit: in mmol/L (this channel's units) it is not plausible, in mg/dL it would be. Write the unit: glucose 540 mg/dL or 540 mmol/L.",
+      ],
+      "si",
+    ],
+    [
+      "glu 6",
+      [
+        "unit.ambiguous@1: Glucose 6 has no unit: in mg/dL (this channel's units) it is not plausible, in mmol/L it would be. Write the unit: glucose 6 mmol/L or 6 mg/dL.",
+      ],
+      "conventional",
+    ],
+    [
+      "Na 128 Na 131",
+      [
+        "value.conflict: Sodium given more than once with different values (128 mmol/L, 131 mmol/L): none of them was used. Send the one to calculate with.",
+      ],
+    ],
+    [
+      // A lab sodium 5 below the blood gas's: the pseudohyponatraemia hint (4 or more apart).
+      "Na 128 cNa 133",
+      [
+        "value.specimenConflict: Sodium given more than once with different values (lab 128 mmol/L, blood gas 133 mmol/L): none of them was used. Send the one to calculate with. A lab (indirect ISE) sodium well below the blood-gas (direct ISE) one can be pseudohyponatraemia from very high lipids or protein.",
+      ],
+    ],
+    [
+      "Na 128 cNa 131",
+      [
+        "value.specimenConflict: Sodium given more than once with different values (lab 128 mmol/L, blood gas 131 mmol/L): none of them was used. Send the one to calculate with.",
+      ],
+    ],
+    ["bed 4 bed 5", ["tag.multiple@1: More than one case tag: one message, one case."]],
+    ["calc osm", ["value.missing@1: The calculated osmolality has no number after it."]],
+    ["calc osm >300", ["value.censored@1: A claimed calculated osmolality needs a plain number."]],
+  ];
+  it.each(cases)("%j", (message, expected, units) => {
+    expect(said(message, units)).toEqual(expected);
+  });
+
+  it("notes say how a value was taken", () => {
+    expect(readMessage("EtOH <10 mg/dL").notes).toEqual(["Ethanol written as below 10 mg/dL counted as 0."]);
+    expect(readMessage("urea 30 mg/dL").notes).toEqual([
+      "urea 30 mg/dL read as urea itself, not BUN (urea nitrogen). If you meant BUN, write BUN 30.",
+    ]);
+    expect(readMessage("osm 290 mOsm/L").notes).toEqual([
+      "Osmolality written per litre is read as mOsm/kg, as osmometers report it.",
+    ]);
+  });
+
+  it("the echo names the specimen, the lab's range for osmolality, conversions and where a unit came from", () => {
+    expect(readMessage("osm 290 (275-295)").echo).toBe("measured osm 290 mOsm/kg (lab range 275–295)");
+    expect(readMessage("cNa 133 pH 7.1").echo).toBe("Na 133 mmol/L (blood gas), pH 7.1");
+    expect(readMessage("EtOH <10 mg/dL").echo).toBe("EtOH <10 mg/dL = 0 mmol/L");
+    expect(readMessage("osm 290 mOsm/L").echo).toBe("measured osm 290 mOsm/L = 290 mOsm/kg");
+    expect(readMessage("glu 6", { unitSystem: "si" }).echo).toBe(
+      "glucose 6 mmol/L (unit from the channel's setting)",
+    );
   });
 });
