@@ -326,13 +326,19 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       continue;
     }
 
-    // A line label: "Urine: Na 40 K 35" — a specimen word first, then a colon.
-    let lineSpecimen: Specimen | undefined;
+    // Labels: a specimen word and a colon ("Urine: Na 40 K 35", "Na 140 Urine: K 30") cover the
+    // rest of the line, up to the next label. Later in a line, a label is one only when a name
+    // follows it: in "Sodium, urine: 40" the word qualifies the sodium.
     const firstMeaningful = lexemes.findIndex((l) => l.kind !== "sep" && l.kind !== "dash");
-    const first = specimenMatches.find((m) => m.first === firstMeaningful);
-    const afterFirst = first && lexemes[first.last + 1];
-    const label = afterFirst?.kind === "sep" && afterFirst.char === ":" ? first : undefined;
-    if (label) lineSpecimen = label.entry.specimen;
+    const anchorStarts = new Set(anchors.map((a) => a.first));
+    const labels = specimenMatches.filter((m) => {
+      const after = lexemes[m.last + 1];
+      if (after?.kind !== "sep" || after.char !== ":") return false;
+      if (m.first === firstMeaningful) return true;
+      let j = m.last + 2;
+      while (lexemes[j]?.kind === "sep") j++;
+      return anchorStarts.has(j);
+    });
 
     // Words before the first name: a list number, a label, a time — or something not understood.
     let unknownBefore = 0;
@@ -350,16 +356,21 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     for (let k = 0; k < anchors.length; k++) {
       const anchor = anchors[k]!;
       const next = anchors[k + 1];
-      // Specimen words directly before a name belong to it ("spot urine Na", "U Na").
+      const label = labels.findLast((m) => m.last < anchor.first);
+      const lineSpecimen = label?.entry.specimen;
+      // Specimen words directly before a name belong to it ("spot urine Na", "U Na"); a cell ends
+      // where the next name, its specimen words or a label begin.
       const prefix = specimenBefore.get(anchor.first);
       const nextPrefix = next ? specimenBefore.get(next.first) : undefined;
-      const end = next
-        ? nextPrefix && nextPrefix !== label
+      let end = next
+        ? nextPrefix && !labels.includes(nextPrefix)
           ? nextPrefix.first
           : next.first
         : lexemes.length;
+      const nextLabel = labels.find((m) => m.first > anchor.last && m.first < end);
+      if (nextLabel) end = nextLabel.first;
       const cell = readCell(anchor, lexemes.slice(anchor.last + 1, end), lineNo);
-      if (prefix && prefix !== label) cell.specimens.add(prefix.entry.specimen);
+      if (prefix && !labels.includes(prefix)) cell.specimens.add(prefix.entry.specimen);
       if (anchor.entry.kind === "analyte" && anchor.entry.specimen) cell.specimens.add(anchor.entry.specimen);
       if (lineSpecimen && cell.specimens.size === 0) cell.specimens.add(lineSpecimen);
       if (cell.specimens.size === 0 && section) cell.specimens.add(section);
@@ -1002,17 +1013,19 @@ function listOf(items: string[]): string {
   return items.length <= 1 ? (items[0] ?? "") : `${items.slice(0, -1).join(", ")} and ${items.at(-1)}`;
 }
 
-/** First letter up, for a Latin letter only ("β-hydroxybutyrate" stays as it is). */
+/** First letter up, for a Latin letter only ("β-hydroxybutyrate" stays as it is), never in "pH". */
 function capitalise(text: string): string {
-  return /^[a-z]/.test(text) ? text.charAt(0).toUpperCase() + text.slice(1) : text;
+  return /^[a-z]/.test(text) && !text.startsWith("pH") ? text.charAt(0).toUpperCase() + text.slice(1) : text;
 }
 
 function linesWord(lines: number[]): string {
-  const shown = lines.slice(0, 8);
-  const more = lines.length > shown.length ? ` and ${lines.length - shown.length} more` : "";
-  return lines.length === 1
-    ? `Line ${lines[0]}`
-    : `${lines.length} lines (${listOf(shown.map(String))}${more})`;
+  if (lines.length === 1) return `Line ${lines[0]}`;
+  const shown = lines.slice(0, 8).map(String);
+  const list =
+    lines.length > shown.length
+      ? `${shown.join(", ")} and ${lines.length - shown.length} more`
+      : listOf(shown);
+  return `${lines.length} lines (${list})`;
 }
 
 function onLines(lines: number[]): string {

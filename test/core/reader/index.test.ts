@@ -473,7 +473,49 @@ describe("what the reader says (each problem's words, as a resident reads them)"
     expect(said(message, units)).toEqual(expected);
   });
 
+  it("says which column it used, and keeps pH and β-hydroxybutyrate as they are written", () => {
+    const notes = (m: string) => readMessage(m).notes;
+    expect(notes("Date 01/03 02/03\nNa 128 131\nK 4.0 4.2")).toEqual([
+      "Rows with 2 results: the last column was used, the latest by the dates in the header.",
+    ]);
+    expect(notes("Date 03/03 02/03 01/03\nNa 128 131 135\nK 4.0 4.2 4.4")).toEqual([
+      "Rows with 3 results: the first column was used, the latest by the dates in the header.",
+    ]);
+    expect(notes("Date 01/03 03/03 02/03\nNa 128 131 135\nK 4.0 4.2 4.4")).toEqual([
+      "Rows with 3 results: the second column was used, the latest by the dates in the header.",
+    ]);
+    expect(said("pH 7.4 7.3")[0]).toMatch(
+      /^columns\.ambiguous: pH has more than one result \(pH 7\.4 and 7\.3\)/,
+    );
+    expect(said("BHB 99")).toEqual([
+      "unit.ambiguous@1: β-hydroxybutyrate 99: no unit — write mg/dL (the only plausible one), or set the channel's units.",
+    ]);
+    expect(said("bhb 9999")).toEqual([
+      "unit.ambiguous@1: β-hydroxybutyrate 9999: no unit — no unit makes it plausible: check for a typo.",
+    ]);
+  });
+
+  it("names the unit that would make a value plausible, and long lists of lines end with a count", () => {
+    expect(said("BUN 0.5")).toEqual([
+      "value.implausible@1: Blood urea nitrogen 0.5 mg/dL is outside 1–300 mg/dL, so it was not used. If it is in mmol/L, write the unit.",
+    ]);
+    expect(said("urea 10 mmol/L BUN 40")).toEqual([
+      "value.conflict: Urea and BUN given more than once with different values (10 mmol/L, 40 mg/dL): none of them was used. Send the one to calculate with.",
+    ]);
+    expect(said("a1\nb1\nc1\nd1\ne1\nf1\ng1\nh1\ni1\nj1\nNa 140")).toEqual([
+      "word.unknown: 10 lines (1, 2, 3, 4, 5, 6, 7, 8 and 2 more) were not understood (in part or whole) and not used. Write values as name, number, unit — like Na 128, glucose 540 mg/dL.",
+    ]);
+    expect(said("Na 1 Na 2 Na 3 Na 4 Na 5").at(-1)).toBe("value.implausible: …and 2 more like this.");
+  });
+
   it("notes say how a value was taken", () => {
+    expect(readMessage("urea 300 mg/L").notes).toEqual([
+      "urea 300 mg/L read as urea itself, not BUN (urea nitrogen). If you meant BUN, write BUN 300.",
+    ]);
+    expect(readMessage("urea 0.3 g/L").notes).toEqual([
+      "urea 0.3 g/L read as urea itself, not BUN (urea nitrogen). If you meant BUN, write BUN 0.3.",
+    ]);
+    expect(readMessage("urea 5 mmol/L").notes).toEqual([]);
     expect(readMessage("EtOH <10 mg/dL").notes).toEqual(["Ethanol written as below 10 mg/dL counted as 0."]);
     expect(readMessage("urea 30 mg/dL").notes).toEqual([
       "urea 30 mg/dL read as urea itself, not BUN (urea nitrogen). If you meant BUN, write BUN 30.",
@@ -485,11 +527,187 @@ describe("what the reader says (each problem's words, as a resident reads them)"
 
   it("the echo names the specimen, the lab's range for osmolality, conversions and where a unit came from", () => {
     expect(readMessage("osm 290 (275-295)").echo).toBe("measured osm 290 mOsm/kg (lab range 275–295)");
+    // Only an osmolality's range, and only a range with both ends, is shown.
+    expect(readMessage("osm 290 (<300)").echo).toBe("measured osm 290 mOsm/kg");
+    expect(readMessage("Na 140 (135-145)").echo).toBe("Na 140 mmol/L");
+    expect(readMessage("osm 290 mOsm/L (275-295)").echo).toBe(
+      "measured osm 290 mOsm/L = 290 mOsm/kg (lab range 275–295)",
+    );
     expect(readMessage("cNa 133 pH 7.1").echo).toBe("Na 133 mmol/L (blood gas), pH 7.1");
     expect(readMessage("EtOH <10 mg/dL").echo).toBe("EtOH <10 mg/dL = 0 mmol/L");
     expect(readMessage("osm 290 mOsm/L").echo).toBe("measured osm 290 mOsm/L = 290 mOsm/kg");
     expect(readMessage("glu 6", { unitSystem: "si" }).echo).toBe(
       "glucose 6 mmol/L (unit from the channel's setting)",
     );
+  });
+});
+
+describe("how a paste's parts are read (rows, sections, labels, brackets, tags)", () => {
+  // Invented messages: [message, inputs read (canonical units), problem codes].
+  const cases: [string, LabInputs, string[]][] = [
+    // Case tags: read as the tag, never as values; a bad one is refused, the values still read.
+    ["# Na 140", { sodium: 140 }, ["word.unknown"]],
+    ["bed 12 Na 140 bed 12", { sodium: 140 }, []],
+    ["bed 12!! Na 140", { sodium: 140 }, ["tag.refused"]],
+    ["bay abc Na 140", { sodium: 140 }, ["tag.refused"]],
+    // What touches an identifier without a space is masked with it: no potassium out of an address.
+    ["Na 140 bob@x.org;K5", { sodium: 140 }, ["privacy.identifier"]],
+    ["Na 140\nK 4 bob@x.org", { sodium: 140, potassium: 4 }, ["privacy.identifier"]],
+    // Sections: a specimen heading holds until the next heading; two specimens in one heading end it.
+    ["Urine\nNa 40\nK 35", { urineSodium: 40, urinePotassium: 35 }, []],
+    ["Urine\nNa 40\nSerum\nNa 140", { urineSodium: 40, sodium: 140 }, []],
+    ["Urine\nNa 40\nSerum Urine\nNa 140", { urineSodium: 40, sodium: 140 }, []],
+    // A numbered heading is not a value; a bare number on its own line is an orphan.
+    ["1. Electrolytes\nNa 140", { sodium: 140 }, []],
+    ["140\nNa 138", { sodium: 138 }, ["number.orphan"]],
+    // A list number before the first name is read past; a larger number there is an orphan.
+    ["5 Na 140", { sodium: 140 }, []],
+    ["150 Na 140", { sodium: 140 }, ["number.orphan"]],
+    ["zork Na 140", { sodium: 140 }, ["word.unknown"]],
+    // A line label covers the line; an inline "urine" covers its own name only, and asks after it.
+    ["Urine: Na 40 K 35", { urineSodium: 40, urinePotassium: 35 }, []],
+    ["Urine Na 40 K 35", { urineSodium: 40 }, ["specimen.unclear"]],
+    ["UNa 40 K 4", { urineSodium: 40 }, ["specimen.unclear"]],
+    ["Na 140 urine Na 40", { sodium: 140, urineSodium: 40 }, []],
+    ["urine Na 40 serum Na 140", { sodium: 140, urineSodium: 40 }, []],
+    ["spot urine Na 40", { urineSodium: 40 }, []],
+    // Bracket groups, nested or not, and "to" in a range.
+    ["Na 140 (135 to 145)", { sodium: 140 }, []],
+    ["Na 140 ((135-145))", { sodium: 140 }, []],
+    ["Na 140 (ref (135-145))", { sodium: 140 }, []],
+    ["Na (135-145) 124", { sodium: 124 }, []],
+    // A unit after a flag, in brackets after a result, a second unit in brackets for the same value.
+    ["glu 9.4 H mmol/L", { glucose: 9.4 }, []],
+    ["glu 9.4 (H) mmol/L", { glucose: 9.4 }, []],
+    ["glu 9.4 mmol/L (169 mg/dL)", { glucose: 9.4 }, []],
+    ["glu 9.4 mmol/L (3.9-5.5 mmol/L)", { glucose: 9.4 }, []],
+    ["glu 5 g", {}, ["unit.incomplete"]],
+    // Derived values are claims or not used, never inputs.
+    ["HCO3 std 24", {}, []],
+    ["HCO3 (std) 24 HCO3 22", { bicarbonate: 22 }, []],
+    ["urine glucose 5 mmol/L", {}, []],
+    // A label later in a line covers what follows it; a specimen word after a name qualifies it.
+    ["Na 140 Urine: K 30", { sodium: 140, urinePotassium: 30 }, []],
+    ["Na 140 K 4 Urine: Na 40 K 30", { sodium: 140, potassium: 4, urineSodium: 40, urinePotassium: 30 }, []],
+    ["Urine: Na 40 Serum: Na 140", { urineSodium: 40, sodium: 140 }, []],
+    ["Sodium, urine: 40", { urineSodium: 40 }, []],
+    ["Sodium (urine): 40", { urineSodium: 40 }, []],
+    ["Na 140 urine", { urineSodium: 140 }, []],
+    ["glu 5 mmol/L\nurine", { glucose: 5 }, []],
+    // Lines of headings only: units, flags, brackets, two specimens, a numbered title.
+    ["mmol/L\nNa 140", { sodium: 140 }, []],
+    ["H\nNa 140", { sodium: 140 }, []],
+    ["(\nNa 140", { sodium: 140 }, []],
+    ["Urine Serum\nNa 140", { sodium: 140 }, []],
+    ["100 Electrolytes\nNa 140", { sodium: 140 }, ["number.orphan"]],
+    ["Electrolytes blorp\nNa 140", { sodium: 140 }, ["word.unknown"]],
+    ["140 150\nNa 138", { sodium: 138 }, ["number.orphan"]],
+    ["2 T", {}, ["number.orphan"]],
+    ["Na 140 K 4 Cl", { sodium: 140, potassium: 4 }, ["value.missing"]],
+    // One value in two units is one result; two values, or one value twice, are two.
+    ["Na 140 mmol/L (140 mEq/L)", { sodium: 140 }, []],
+    ["glu 9.4 mmol/L (200 mg/dL)", {}, ["columns.ambiguous"]],
+    ["glu 9.4 (169)", {}, ["columns.ambiguous"]],
+    ["glu 9.4 mmol/L (9.4 mmol/L)", {}, ["columns.ambiguous"]],
+    // Columns: a table ends at a blank line; a row before it or after it is its own.
+    ["Na 128 131\nK 4.0 4.2\n\nCl 100", { chloride: 100 }, ["columns.ambiguous"]],
+    ["Cl 100\nNa 128 131\nK 4.0 4.2", { chloride: 100 }, ["columns.ambiguous"]],
+    ["Na 128 131\nK 4.0 4.2 4.4", {}, ["columns.ambiguous"]],
+    [
+      "Date 01/03 02/03\nNa 128 131\nK 4.0 4.2\n\nCl 100",
+      { sodium: 131, potassium: 4.2, chloride: 100 },
+      ["privacy.identifier"],
+    ],
+    ["Date 02/03 01/03\nNa 128 131\nK 4.0 4.2", { sodium: 128, potassium: 4 }, ["privacy.identifier"]],
+    [
+      "Date 01/03 03/03 02/03\nNa 128 131 135\nK 4.0 4.2 4.4",
+      { sodium: 131, potassium: 4.2 },
+      ["privacy.identifier"],
+    ],
+    // The same value from the lab and the blood gas is one value, the lab's.
+    ["cNa 133 Na 133", { sodium: 133 }, []],
+    // Repeated problems are capped at three of a kind, then counted.
+    [
+      "Na 1 Na 2 Na 3 Na 4 Na 5",
+      {},
+      ["value.implausible", "value.implausible", "value.implausible", "value.implausible"],
+    ],
+  ];
+  it.each(cases)("%j", (message, inputs, problems) => {
+    const r = readMessage(message);
+    expect(Object.keys(r.inputs).sort()).toEqual(Object.keys(inputs).sort());
+    for (const [k, v] of Object.entries(inputs)) expect(r.inputs[k as keyof LabInputs]).toBeCloseTo(v, 6);
+    expect(r.problems.map((p) => p.code)).toEqual(problems);
+  });
+
+  it("tags: the first one kept, the same one twice is one tag", () => {
+    expect(readMessage("bed 12 Na 140 bed 12").tag).toBe("bed 12");
+    expect(readMessage("#ICU3 Na 140").tag).toBe("ICU3");
+    expect(readMessage("bed 12!! Na 140").tag).toBeUndefined();
+    expect(checkTag("a-1")).toEqual({ ok: true, tag: "A-1" });
+    expect(checkTag("-1").ok).toBe(false);
+    expect(checkTag("12345678901").ok).toBe(false);
+    expect(checkTag("x12").ok).toBe(true);
+  });
+
+  it("an anion gap that names potassium keeps it in its name; a potassium after a gap's value is a potassium", () => {
+    const claim = (m: string) =>
+      readMessage(m).claims.map((c) => [c.kind, c.value, c.withPotassium === true]);
+    expect(claim("AG (K+) 18")).toEqual([["anionGap", 18, true]]);
+    expect(claim("Anion gap incl K 20")).toEqual([["anionGap", 20, true]]);
+    expect(claim("AnGap,K+ 16")).toEqual([["anionGap", 16, true]]);
+    expect(claim("anion gap with K 18")).toEqual([["anionGap", 18, true]]);
+    const after = readMessage("anion gap 12 K 4.0");
+    expect(after.claims.map((c) => [c.kind, c.value, c.withPotassium === true])).toEqual([
+      ["anionGap", 12, false],
+    ]);
+    expect(after.inputs).toEqual({ potassium: 4 });
+    expect(claim("osm calc 290")).toEqual([["calculatedOsmolality", 290, false]]);
+    expect(claim("osmolality, calculated 290")).toEqual([["calculatedOsmolality", 290, false]]);
+    expect(claim("Na corrected 141")).toEqual([["correctedSodium", 141, false]]);
+  });
+
+  it("each value keeps its flag, its lab range, its specimen and where it sits", () => {
+    const one = (m: string) => readMessage(m).values[0]!;
+    expect(one("Na 124*").flag).toBe("*");
+    expect(one("Na 124 H (135-145)")).toMatchObject({ flag: "H", labRange: { low: 135, high: 145 } });
+    expect(one("EtOH 5 ref <10 mg/dL").labRange).toEqual({ high: 10 });
+    expect(one("Na 140").flag).toBeUndefined();
+    expect(one("Na 140").labRange).toBeUndefined();
+    expect(one("Na 140").below).toBeUndefined();
+    expect(one("EtOH <10 mg/dL").below).toBe(true);
+    // Offsets on later lines count the lines before them.
+    const text = "Na 140\n\nK 4\nglu 5 mmol/L";
+    expect(readMessage(text).values.map((v) => text.slice(v.start, v.end))).toEqual([
+      "Na 140",
+      "K 4",
+      "glu 5 mmol/L",
+    ]);
+    expect(readMessage("Urine\nNa 40\nSerum\nNa 140").values.map((v) => [v.key, v.specimen])).toEqual([
+      ["sodium", "serum"],
+      ["urineSodium", "urine"],
+    ]);
+    // In the order of the inputs, whatever the order written.
+    expect(readMessage("K 4 Na 140 Cl 100").values.map((v) => v.key)).toEqual([
+      "sodium",
+      "potassium",
+      "chloride",
+    ]);
+  });
+
+  it("lists what it read but does not use, once", () => {
+    expect(readMessage("HCO3 std 24").notUsed).toEqual(["standard bicarbonate"]);
+    expect(readMessage("HCO3 std 24").notes).toEqual([
+      "Not used in these calculations: standard bicarbonate.",
+    ]);
+    expect(readMessage("Na 140").notUsed).toEqual([]);
+    expect(readMessage("Na 140").notes).toEqual([]);
+  });
+
+  it("writes inputs back as a message it reads to the same inputs", () => {
+    const inputs: LabInputs = { sodium: 140, urineSodium: 40, urineOsmolality: 500, ethanol: 1e-7 };
+    const text = renderInputs(inputs);
+    expect(text).toBe("na 140 mmol/L etoh 0.0000001 mmol/L urine osm 500 mOsm/kg urine na 40 mmol/L");
+    expect(readMessage(text).inputs).toEqual(inputs);
   });
 });
