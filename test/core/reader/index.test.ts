@@ -508,6 +508,32 @@ describe("what the reader says (each problem's words, as a resident reads them)"
     expect(said("Na 1 Na 2 Na 3 Na 4 Na 5").at(-1)).toBe("value.implausible: …and 2 more like this.");
   });
 
+  it("names specimens, the written unit's limits and pH without a unit", () => {
+    expect(said("UNa 40 serum")).toEqual([
+      "specimen.conflict@1: Urine sodium 40 is labelled with two specimens (serum/plasma and urine): not used. Say which.",
+    ]);
+    expect(said("cNa 133 urine")).toEqual([
+      "specimen.conflict@1: Sodium 133 is labelled with two specimens (urine and blood gas): not used. Say which.",
+    ]);
+    expect(said("glu 5000 mg/dL")).toEqual([
+      "value.implausible@1: Glucose 5000 mg/dL is outside 10–3000 mg/dL, so it was not used. Check for a typo.",
+    ]);
+    expect(said("pH 9")).toEqual([
+      "value.implausible@1: pH 9 is outside 6.5–8, so it was not used. Check for a typo.",
+    ]);
+    expect(said("calc osm 290 295")[0]).toMatch(
+      /^columns\.ambiguous: Calculated osmolality has more than one result \(calculated osmolality 290 and 295\)/,
+    );
+    expect(readMessage("urine chloride 100").notUsed).toEqual(["urine chloride"]);
+  });
+
+  it("a note said twice is said once", () => {
+    expect(readMessage("EtOH <10 mg/dL EtOH <10 mg/dL").notes).toEqual([
+      "Ethanol written as below 10 mg/dL counted as 0.",
+    ]);
+    expect(readMessage("urea 30 mg/dL\nurea 30 mg/dL").notes).toHaveLength(1);
+  });
+
   it("notes say how a value was taken", () => {
     expect(readMessage("urea 300 mg/L").notes).toEqual([
       "urea 300 mg/L read as urea itself, not BUN (urea nitrogen). If you meant BUN, write BUN 300.",
@@ -624,6 +650,20 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
       { sodium: 131, potassium: 4.2 },
       ["privacy.identifier"],
     ],
+    // A qualifier belongs to its own analyte: "calc" after a sodium is not understood, not a claim.
+    ["Na 140 calc", { sodium: 140 }, ["word.unknown"]],
+    ["glu 5 mmol/L corrected", { glucose: 5 }, ["word.unknown"]],
+    ["K 4 std", { potassium: 4 }, ["word.unknown"]],
+    ["Na 140 incl", { sodium: 140 }, ["word.unknown"]],
+    ["Sodium, spot urine 40", { urineSodium: 40 }, []],
+    ["eGFR 50 (>60)", {}, []],
+    ["calc osm 290 295", {}, ["columns.ambiguous"]],
+    ["urine chloride 100", {}, []],
+    ["UNa 40 serum", {}, ["specimen.conflict"]],
+    ["cNa 133 urine", {}, ["specimen.conflict"]],
+    ["Na 140 mmol/L (mmol/L)", { sodium: 140 }, []],
+    ["glu 9.4 (mmol/L)", { glucose: 9.4 }, []],
+    ["K 4 ((3.5-5.1)", { potassium: 4 }, []],
     // The same value from the lab and the blood gas is one value, the lab's.
     ["cNa 133 Na 133", { sodium: 133 }, []],
     // Repeated problems are capped at three of a kind, then counted.
@@ -670,6 +710,10 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
   it("each value keeps its flag, its lab range, its specimen and where it sits", () => {
     const one = (m: string) => readMessage(m).values[0]!;
     expect(one("Na 124*").flag).toBe("*");
+    expect(one("glu 9.4 (H) mmol/L").flag).toBe("H");
+    expect(one("EtOH 5 mg/dL (<10)").labRange).toEqual({ high: 10 });
+    expect(one("Na 140 ref 135-145").labRange).toEqual({ low: 135, high: 145 });
+    expect(one("K 4 ((3.5-5.1)").labRange).toEqual({ low: 3.5, high: 5.1 });
     expect(one("Na 124 H (135-145)")).toMatchObject({ flag: "H", labRange: { low: 135, high: 145 } });
     expect(one("EtOH 5 ref <10 mg/dL").labRange).toEqual({ high: 10 });
     expect(one("Na 140").flag).toBeUndefined();
