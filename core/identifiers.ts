@@ -46,6 +46,10 @@ const SSN = /^\d{3}-\d{2}-\d{4}$/;
 const DATE_NUMERIC = /^(\d{1,4})[./-](\d{1,2})([./-](\d{2,4}))?$/;
 const DATE_ISO = /^\d{4}-\d{2}-\d{2}(T.*)?$/;
 const PHONE_PUNCT = /^\+?\(?\d{2,5}\)?[-.]\d{3,4}[-.]\d{3,4}$/;
+/** With a country code: "+44-161-496-0000", "+1.555.201.7788". */
+const PHONE_INTERNATIONAL = /^\+\d{1,3}[-.]\d{2,5}[-.]\d{3,4}[-.]\d{3,4}$/;
+/** The part after a bracketed area code: "(0161)-496-0000" is the tokens "0161" and "-496-0000". */
+const PHONE_AFTER_AREA = /^[-.]\d{3,4}[-.]\d{3,4}$/;
 const DIGITS = /^\d+$/;
 const DECIMAL = /^[<>]?\d+[.,]\d+$/;
 const LONG_DIGITS = /\d{6,}/;
@@ -241,7 +245,7 @@ export function findIdentifiers(
     } else if (IPV4.test(text) && text.split(".").every((p) => Number(p) <= 255)) hit("ip-address", i);
     else if (SSN.test(text)) hit("social-security-number", i);
     else if (isDate(text)) hit("date", i);
-    else if (PHONE_PUNCT.test(text)) hit("phone-number", i);
+    else if (PHONE_PUNCT.test(text) || PHONE_INTERNATIONAL.test(text)) hit("phone-number", i);
     else if (AGE_GLUED.test(text) && Number(AGE_GLUED.exec(text)![1]) >= 90) hit("age-over-89", i);
     else if (LONG_DIGITS.test(DECIMAL.test(text) ? text.split(/[.,]/)[0]! : text)) {
       const digits = text.replace(/\D/g, "");
@@ -255,8 +259,13 @@ export function findIdentifiers(
       );
     }
 
-    // Runs of digit groups: "943 476 5919", "07700 900123", "555 123 4567".
+    // Runs of digit groups: "943 476 5919", "07700 900123", "555 123 4567", "(0161)-496-0000".
     if (allDigits && text.length >= 2 && text.length <= 5) {
+      if (PHONE_AFTER_AREA.test(tokens[i + 1]?.text ?? "")) {
+        hit("phone-number", i, i + 1);
+        i++;
+        continue;
+      }
       let j = i;
       let digits = text;
       while (
