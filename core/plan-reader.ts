@@ -162,15 +162,27 @@ export function readPlan(text: string): PlanReading {
     plan.age = years < 18 ? "child" : years >= 65 ? "elderly" : "adult";
   }
 
-  // Reverse planning: "how much 3% for +5", "to raise it by 5", "to bring it down 4", "target +6".
+  // Reverse planning: "how much 3% for +5", "to raise it by 5", "to bring it down 4", "to lower
+  // it by 3", "target +6". The direction comes from the words or the sign; when they disagree
+  // ("to lower it by +4") nothing is guessed.
   const target = take(
-    /\b(?:how\s+much\b[^\d+\-−]{0,40}?)?(?:for|by|target|to\s+(?:raise|lift)(?:\s+it)?(?:\s+by)?|to\s+(?:bring|take|lower)(?:\s+it)?\s+(down|up)(?:\s+by)?)\s*([+\-−]?\s*\d{1,2}(?:[.,]\d)?)\s*(?:mmol(?:\/l)?)?(?=\s|$)/i,
+    /\b(?:how\s+much\b[^\d+\-−]{0,40}?)?(?:for|by|target|to\s+(?:raise|lift|increase|lower|reduce|decrease|drop)(?:\s+it)?(?:\s+by)?|to\s+(?:bring|take)(?:\s+it)?\s+(down|up)(?:\s+by)?)\s*([+\-−]?\s*\d{1,2}(?:[.,]\d)?)\s*(?:mmol(?:\/l)?)?(?=\s|$)/i,
   );
   if (target) {
-    const magnitude = number(target[2]!.replace(/[\s+]/g, "").replace("−", "-"));
-    const down = /down|lower/i.test(target[0]) || /^[-−]/.test(target[2]!.trim());
-    plan.target = down ? -Math.abs(magnitude) : Math.abs(magnitude);
-    if (Math.abs(plan.target) < 0.5 || Math.abs(plan.target) > 20) {
+    const written = target[2]!.trim();
+    const magnitude = Math.abs(number(written.replace(/[\s+]/g, "").replace("−", "-")));
+    const saysDown = /\b(?:down|lower|reduce|decrease|drop)\b/i.test(target[0]);
+    const saysUp = /\b(?:up|raise|lift|increase)\b/i.test(target[0]);
+    const signDown = /^[-−]/.test(written);
+    const signUp = written.startsWith("+");
+    plan.target = saysDown || signDown ? -magnitude : magnitude;
+    if ((saysDown && signUp) || (saysUp && signDown)) {
+      problems.push({
+        code: "plan.targetUnclear",
+        message: "The words and the sign of the change disagree: write it one way, like +5 or -4.",
+      });
+      delete plan.target;
+    } else if (magnitude < 0.5 || magnitude > 20) {
       problems.push({
         code: "plan.targetImplausible",
         message: "A target change should be between 0.5 and 20 mmol/L.",
