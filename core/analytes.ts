@@ -333,6 +333,21 @@ function alcohol(
   };
 }
 
+/**
+ * Whether a canonical value passes the analyte's typo guard. The limits are inclusive in every
+ * unit: a limit written in mg/dL and converted to mmol/L differs from the catalogue's in the last
+ * bits of a double, so "methanol 1000 mg/dL" must not fall just outside a limit of 1000 mg/dL.
+ */
+export function isPlausible(analyte: Analyte, canonical: number): boolean {
+  const { min, max } = plausibleLimits(analyte);
+  return canonical >= min && canonical <= max;
+}
+
+/** The typo guard's limits in the canonical unit, widened by a part in 10¹² (see isPlausible). */
+export function plausibleLimits(analyte: Analyte): { min: number; max: number } {
+  return { min: analyte.plausible.min * (1 - 1e-12), max: analyte.plausible.max * (1 + 1e-12) };
+}
+
 /** Factor from `unit` to the analyte's canonical unit, or undefined when the unit is not accepted. */
 const FACTORS = new Map<AnalyteId, Map<Unit, number | undefined>>();
 

@@ -4,7 +4,7 @@
  * urea). Validated with zod: a value outside its typo guard is refused, never used.
  */
 import { z } from "zod";
-import { ANALYTES, type AnalyteId } from "./analytes.js";
+import { ANALYTES, type AnalyteId, plausibleLimits } from "./analytes.js";
 
 export const INPUT_KEYS = [
   "sodium",
@@ -34,13 +34,15 @@ export type InputKey = (typeof INPUT_KEYS)[number];
 
 function guarded(id: InputKey) {
   const { plausible, name, canonicalUnit } = ANALYTES[id];
+  // The reader's typo guard (isPlausible), so whatever the reader takes is stored and read back.
+  const limits = plausibleLimits(ANALYTES[id]);
   return z
     .number()
     .finite()
-    .min(plausible.min, {
+    .min(limits.min, {
       message: `${name} below ${round(plausible.min)} ${canonicalUnit} is not plausible`,
     })
-    .max(plausible.max, {
+    .max(limits.max, {
       message: `${name} above ${round(plausible.max)} ${canonicalUnit} is not plausible`,
     })
     .optional();

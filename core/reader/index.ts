@@ -12,6 +12,7 @@ import {
   ANALYTES,
   type Analyte,
   type AnalyteId,
+  isPlausible,
   type Specimen,
   toCanonicalFactor,
   type UnitSystem,
@@ -896,7 +897,7 @@ function readValue(
   const key: InputKey = analyte.id === "bun" ? "urea" : (analyte.id as InputKey);
 
   // Typo guard, stated in the unit the user wrote.
-  if (canonical < analyte.plausible.min || canonical > analyte.plausible.max) {
+  if (!isPlausible(analyte, canonical)) {
     const lo = num(analyte.plausible.min / factor, 1);
     const hi = num(analyte.plausible.max / factor, 1);
     let hint = " Check for a typo.";
@@ -990,7 +991,7 @@ function unitAdvice(analyte: Analyte, text: string): string {
   const usual = analyte.units.filter((u) => u === "mmol/L" || u === "mg/dL" || u === "g/L" || u === "g/dL");
   const fits = usual.filter((u) => {
     const c = value * toCanonicalFactor(analyte, u)!;
-    return c >= analyte.plausible.min && c <= analyte.plausible.max;
+    return isPlausible(analyte, c);
   });
   if (fits.length === 0) return "no unit makes it plausible: check for a typo.";
   const only = fits.length === 1 && usual.length > 1 ? " (the only plausible one)" : "";
@@ -1051,7 +1052,7 @@ function otherUnitThatFits(analyte: Analyte, value: number, used: Unit): Unit | 
   for (const unit of analyte.units) {
     if (unit === used) continue;
     const c = value * toCanonicalFactor(analyte, unit)!;
-    if (c >= analyte.plausible.min && c <= analyte.plausible.max) return unit;
+    if (isPlausible(analyte, c)) return unit;
   }
   return undefined;
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ANALYTE_IDS } from "../../core/analytes.js";
-import { INPUT_KEYS, validateInputs } from "../../core/inputs.js";
+import { INPUT_KEYS, LabInputsSchema, validateInputs } from "../../core/inputs.js";
+import { readMessage } from "../../core/reader/index.js";
 
 describe("typed inputs", () => {
   it("keeps valid inputs as they are", () => {
@@ -28,5 +29,14 @@ describe("typed inputs", () => {
 
   it("every input key is an analyte of the catalogue (BUN feeds urea)", () => {
     for (const key of INPUT_KEYS) expect(ANALYTE_IDS as readonly string[], key).toContain(key);
+  });
+});
+
+describe("what the reader takes, the schema takes back", () => {
+  it("a value at a limit written in another unit passes both (methanol 1000 mg/dL)", () => {
+    const r = readMessage("methanol 1000 mg/dL propylene glycol 1000 mg/dL");
+    expect(Object.keys(r.inputs).sort()).toEqual(["methanol", "propyleneGlycol"]);
+    expect(LabInputsSchema.safeParse(r.inputs).success).toBe(true);
+    expect(LabInputsSchema.safeParse({ methanol: 312.2 }).success).toBe(false);
   });
 });
