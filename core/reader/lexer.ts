@@ -271,12 +271,40 @@ export function lexLine(
   return joinRanges(out);
 }
 
-/** "135 - 145" (number, dash, number) is one range; so is "135 to 145" inside brackets. */
+const COMPARATORS: Record<string, "below" | "above"> = {
+  "<": "below",
+  "≤": "below",
+  ">": "above",
+  "≥": "above",
+};
+
+/**
+ * Joins pieces written apart: "135 - 145" (number, dash, number) is one range, and so is "135 to
+ * 145" inside brackets; "< 10" and "≥ 60" are one censored number, never a plain 10 or 60.
+ */
 function joinRanges(lexemes: Lexeme[]): Lexeme[] {
   const out: Lexeme[] = [];
   let depth = 0;
   for (let i = 0; i < lexemes.length; i++) {
-    const a = lexemes[i]!;
+    let a = lexemes[i]!;
+    const after = lexemes[i + 1];
+    if (
+      a.kind === "word" &&
+      COMPARATORS[a.text] &&
+      after?.kind === "number" &&
+      !after.below &&
+      !after.above
+    ) {
+      const side = COMPARATORS[a.text];
+      a = {
+        ...after,
+        text: `${a.text}${after.text}`,
+        below: side === "below",
+        above: side === "above",
+        start: a.start,
+      };
+      i++;
+    }
     if (a.kind === "open") depth++;
     if (a.kind === "close") depth = Math.max(0, depth - 1);
     const b = lexemes[i + 1];

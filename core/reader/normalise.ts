@@ -9,8 +9,8 @@ const QUOTES_SINGLE = /[\u2018\u2019\u201A\u201B\u2032]/g;
 const QUOTES_DOUBLE = /[\u201C\u201D\u201E\u201F\u2033]/g;
 const ZERO_WIDTH = /[\u200B-\u200D\u2060\uFEFF\u00AD]/g;
 const SPACES = /[\u00A0\u2000-\u200A\u202F\u205F\u3000]/g;
-/** "mg / dl", "mmol / L", "mOsm / kg": a unit written with spaces around its slash. */
-const SPACED_UNIT = /\b(m?g|mmol|umol|µmol|meq|mosm|mosmol|ng|pmol|nmol)\s+\/\s+(dl|l|kg|ml)\b/gi;
+/** "mg / dl", "mmol /L", "mOsm/ kg": a unit written with a space beside its slash. */
+const SPACED_UNIT = /\b(m?g|mmol|umol|µmol|meq|mosm|mosmol|ng|pmol|nmol)(?:\s+\/\s*|\/\s+)(dl|l|kg|ml)\b/gi;
 
 function isAscii(text: string): boolean {
   for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) > 0x7f) return false;
@@ -31,6 +31,6 @@ export function normalise(text: string): string {
       .replace(/\u2028|\u2029/g, "\n");
   }
   if (out.includes("\r")) out = out.replace(/\r\n?/g, "\n");
-  if (out.includes(" /")) out = out.replace(SPACED_UNIT, "$1/$2");
+  if (out.includes(" /") || out.includes("/ ")) out = out.replace(SPACED_UNIT, "$1/$2");
   return out;
 }

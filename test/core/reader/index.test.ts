@@ -664,6 +664,16 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     ["Na 140 mmol/L (mmol/L)", { sodium: 140 }, []],
     ["glu 9.4 (mmol/L)", { glucose: 9.4 }, []],
     ["K 4 ((3.5-5.1)", { potassium: 4 }, []],
+    // A comparator written apart from its number is still a censored value, never the plain number.
+    ["EtOH < 10 mg/dL", { ethanol: 0 }, []],
+    ["EtOH ≤ 10 mg/dL", { ethanol: 0 }, []],
+    ["glu > 33.3 mmol/L", {}, ["value.censored"]],
+    ["Na < 100", {}, ["value.censored"]],
+    ["Na 128 (> 135)", { sodium: 128 }, []],
+    ["Na 128 Ref > 135", { sodium: 128 }, []],
+    // A unit with a space on one side of its slash.
+    ["glucose 90 mg/ dl", { glucose: 90 / 18.0156 }, []],
+    ["glucose 90 mg /dl", { glucose: 90 / 18.0156 }, []],
     // The same value from the lab and the blood gas is one value, the lab's.
     ["cNa 133 Na 133", { sodium: 133 }, []],
     // Repeated problems are capped at three of a kind, then counted.

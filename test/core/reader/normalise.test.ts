@@ -14,6 +14,10 @@ describe("normalise", () => {
     ["Na\u200b128", "Na128", "a zero-width space"],
     ["creat 80 \u00b5mol/L", "creat 80 umol/L", "the micro sign"],
     ["glu 90 mg / dl", "glu 90 mg/dl", "a spaced unit"],
+    ["glu 90 mg/ dl", "glu 90 mg/dl", "a space after the slash only"],
+    ["glu 90 mg /dl", "glu 90 mg/dl", "a space before the slash only"],
+    ["osm 290 mOsm /  kg", "osm 290 mOsm/kg", "more than one space"],
+    ["Na 133 / K 3.9", "Na 133 / K 3.9", "a slash between values stays"],
     ["a\r\nb\rc", "a\nb\nc", "Windows and old Mac line ends"],
   ])("%j → %j (%s)", (input, output) => {
     expect(normalise(input)).toBe(output);
