@@ -671,6 +671,8 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     ["Na < 100", {}, ["value.censored"]],
     ["Na 128 (> 135)", { sodium: 128 }, []],
     ["Na 128 Ref > 135", { sodium: 128 }, []],
+    // Dot leaders of a printed report.
+    ["Sodium..........128 mmol/L\nPotassium.......4.1", { sodium: 128, potassium: 4.1 }, []],
     // A unit with a space on one side of its slash.
     ["glucose 90 mg/ dl", { glucose: 90 / 18.0156 }, []],
     ["glucose 90 mg /dl", { glucose: 90 / 18.0156 }, []],

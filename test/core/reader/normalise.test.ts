@@ -14,6 +14,8 @@ describe("normalise", () => {
     ["Na\u200b128", "Na128", "a zero-width space"],
     ["creat 80 \u00b5mol/L", "creat 80 umol/L", "the micro sign"],
     ["glu 90 mg / dl", "glu 90 mg/dl", "a spaced unit"],
+    ["Sodium..........128 mmol/L", "Sodium 128 mmol/L", "dot leaders"],
+    ["Na 128… K 4", "Na 128  K 4", "an ellipsis"],
     ["glu 90 mg/ dl", "glu 90 mg/dl", "a space after the slash only"],
     ["glu 90 mg /dl", "glu 90 mg/dl", "a space before the slash only"],
     ["osm 290 mOsm /  kg", "osm 290 mOsm/kg", "more than one space"],
