@@ -147,8 +147,16 @@ export function trendHeadline(tag: string, t: CorrectionTrend): string {
   if (first?.code === "correction.worsening")
     return `Worsening: ${tag} ${measure} ${fmt(t.baseline)} → ${fmt(t.points.at(-1)!.sodium)}`;
   const open = t.windows.find((w) => w.open);
-  if (open && t.roomLeft)
-    return `${tag}: ${signed((t.direction === "lowering" ? -1 : 1) * open.change)} so far in hours ${num(open.fromHours)}–${num(open.toHours)}; ${fmt(t.roomLeft.mmol)} more allowed`;
+  if (open && t.roomLeft) {
+    const sign = t.direction === "lowering" ? -1 : 1;
+    const sofar = `${signed(sign * open.change)} so far in hours ${num(open.fromHours)}–${num(open.toHours)}`;
+    // The verdict first: a window used up, or a rate that would pass the limit, is never "so far".
+    if (t.roomLeft.mmol <= 0) return `At the limit: ${tag} ${measure} ${sofar}; no more allowed`;
+    const projected = t.projected ? sign * t.projected.atWindowEnd : 0;
+    if (projected > open.limit)
+      return `On course to be too fast: ${tag} ${measure} ${sofar} (${signed(t.projected!.perHour, 2)} an hour); ${fmt(t.roomLeft.mmol)} more allowed`;
+    return `${tag}: ${sofar}; ${fmt(t.roomLeft.mmol)} more allowed`;
+  }
   return `${tag}: within the correction limits`;
 }
 

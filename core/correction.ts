@@ -235,6 +235,7 @@ export function correctionTrend(
   }
   const open = trend.windows.find((w) => w.open);
   const current = trend.windows.at(-1)!;
+  const within = findings.length;
   findings.push({
     code: "correction.withinLimits",
     severity: "info",
@@ -258,7 +259,8 @@ export function correctionTrend(
       if (atEnd > open.limit)
         projection = ` At this rate (${signed(sign * perHour, 2)} per hour, a projection) the ${verb} would reach ${fmt(atEnd)} by the end of the window: above the limit.`;
     }
-    findings.push({
+    // A projection above the limit is a warning, and it comes before "within the limits so far".
+    findings.splice(projection ? within : findings.length, 0, {
       code: "correction.windowOpen",
       severity: projection ? "warning" : "info",
       text: `${signed(sign * current.change)} so far in hours ${num(open.fromHours)}–${num(open.toHours)}; ${fmt(room)} more allowed until ${at(open.toHours)}.${projection}`,

@@ -49,10 +49,11 @@ describe("a night of tagged calculations", () => {
     const text = h.interpretation.join("\n");
     expect(text).toMatch(/bay 4B: toxic alcohol possible; raised osmolal gap/);
     expect(text).toMatch(/bed 12: critical low sodium; hypotonic hyponatraemia/);
-    // 118 → 124 → 127 in 8 h: +9 in the first 24 h, within 10 (Spasovski 2014 [C]) — but K 3.2 was
+    // 118 → 124 → 127 in 8 h: +9 in the first 24 h, within 10 so far (Spasovski 2014 [C]) — but at
+    // that rate the limit is passed long before hour 24, and the handover says that first. K 3.2 was
     // not said to be high risk here, so the standard limit applies.
     expect(text).toMatch(
-      /bed 12: Na 118 → 124 → 127\. Within the correction limits so far: \+9\.0 in hours 0–8 \(limit 10\)/,
+      /bed 12: Na 118 → 124 → 127\. \+9\.0 so far in hours 0–24; 1\.0 more allowed until .*At this rate \(\+1\.13 per hour, a projection\) the rise would reach 27\.0 by the end of the window: above the limit/,
     );
     expect(h.cautions.at(-1)).toBe(CAUTIONS.general);
   });
@@ -76,8 +77,19 @@ describe("a night of tagged calculations", () => {
     now += 2 * HOUR;
     await ask("#3A Na 122");
     const t = await ask("trend #3A");
-    expect(t.headline).toMatch(/^#?3A: \+2\.0 so far in hours 0–24; 8\.0 more allowed$/);
+    // The headline leads with it: a rate that would pass the limit is never only "so far".
+    expect(t.headline).toMatch(
+      /^On course to be too fast: #?3A sodium \+2\.0 so far in hours 0–24 \(\+1\.00 an hour\); 8\.0 more allowed$/,
+    );
     expect(t.interpretation.join(" ")).toMatch(/At this rate \(\+1\.00 per hour, a projection\)/);
+  });
+
+  it("a window used up leads with the limit", async () => {
+    await ask("bed 9 Na 118");
+    now += 20 * HOUR;
+    await ask("bed 9 Na 128");
+    const t = await ask("trend bed 9");
+    expect(t.headline).toBe("At the limit: bed 9 sodium +10.0 so far in hours 0–24; no more allowed");
   });
 
   it("a slow correction is within the limits, with the room left until the window closes", async () => {
@@ -85,6 +97,7 @@ describe("a night of tagged calculations", () => {
     now += 12 * HOUR;
     await ask("bed 1 Na 124");
     const t = await ask("trend bed 1");
+    expect(t.headline).toBe("bed 1: +3.0 so far in hours 0–24; 7.0 more allowed");
     expect(t.interpretation.join(" ")).toMatch(/Within the correction limits/);
     expect(t.interpretation.join(" ")).toMatch(/7\.0 more allowed until in 12 h/);
   });
@@ -273,7 +286,9 @@ describe("correction over time: the scenarios that must never read as safe", () 
 
   it("a series written in the message, across midnight, is answered as a logged one", async () => {
     const t = await ask("trend Na 118 at 22:00, 121 at 04:00, 126 at 09:30");
-    expect(t.headline).toBe("this series: +8.0 so far in hours 0–24; 2.0 more allowed");
+    expect(t.headline).toBe(
+      "On course to be too fast: this series sodium +8.0 so far in hours 0–24 (+0.70 an hour); 2.0 more allowed",
+    );
     expect(t.interpretation.join()).toMatch(/2\.0 more allowed until 22:00/);
     expect(t.data!.trend!.points.map((p) => p.hours)).toEqual([0, 6, 11.5]);
     const fast = await ask("trend Na 110 (0 h) 122 (12 h) 119 (20 h)");

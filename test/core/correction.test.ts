@@ -204,7 +204,12 @@ describe("windows and the room left", () => {
     // +2 in 12 h projects to +4 by hour 24: no warning.
     expect(f.severity).toBe("info");
     // +4 in 6 h projects to +16: the same room, with a warning.
-    expect(correctionTrend(pts([0, 120], [6, 124]))!.findings.at(-1)!.severity).toBe("warning");
+    // The warning is said first, before "within the limits so far".
+    expect(correctionTrend(pts([0, 120], [6, 124]))!.findings.map((x) => [x.code, x.severity])).toEqual([
+      ["correction.windowOpen", "warning"],
+      ["correction.withinLimits", "info"],
+    ]);
+    expect(t.findings.map((x) => x.code)).toEqual(["correction.withinLimits", "correction.windowOpen"]);
   });
 
   it("the projection starts after an hour of the window, from a rise only", () => {

@@ -449,8 +449,9 @@ table("anion gap and the urine work-up", [
 // The correction model (core/correction.ts): windows of 24 h from the first sodium (hour 0).
 // Spasovski 2014 (European guideline) for raising: ≤ 10 in the first 24 h, ≤ 8 in each 24 h after;
 // 8 at high risk (sodium ≤ 105 among others). Lowering a chronic hypernatraemia: about 10 per day.
+/** The verdict: too fast, worsening or within the limits (an open window's note is not a verdict). */
 const trendCode = (points: SodiumPoint[], highRisk = false) =>
-  correctionTrend(points, { highRisk })!.findings[0]!.code;
+  correctionTrend(points, { highRisk })!.findings.find((f) => f.code !== "correction.windowOpen")!.code;
 
 describe("correction limits (Spasovski 2014; REFERENCES §8)", () => {
   it.each([
