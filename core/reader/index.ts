@@ -320,6 +320,10 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       }
       // A number with no words beside it is not a list number.
       if (hasNumber && !lexemes.some((l) => l.kind === "word")) onlyHeader = false;
+      // A heading that starts with a specimen ("Urine studies:", "URINE – spot") opens that
+      // section even when other words on it are not understood (those are still reported).
+      const headed = !hasNumber && specimenMatches[0]?.first === firstWord(lexemes) && specimens.size === 1;
+      if (headed && !onlyHeader) section = [...specimens][0];
       if (onlyHeader) {
         if (specimens.size === 1) section = [...specimens][0];
         else if (specimens.size > 1) section = undefined;
@@ -335,7 +339,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     // Labels: a specimen word and a colon ("Urine: Na 40 K 35", "Na 140 Urine: K 30") cover the
     // rest of the line, up to the next label. Later in a line, a label is one only when a name
     // follows it: in "Sodium, urine: 40" the word qualifies the sodium.
-    const firstMeaningful = lexemes.findIndex((l) => l.kind !== "sep" && l.kind !== "dash");
+    const firstMeaningful = firstWord(lexemes);
     const anchorStarts = new Set(anchors.map((a) => a.first));
     const labels = specimenMatches.filter((m) => {
       const after = lexemes[m.last + 1];
@@ -479,6 +483,11 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   return reading;
 }
 
+/** The index of a line's first piece that is not a separator or a dash. */
+function firstWord(lexemes: readonly Lexeme[]): number {
+  return lexemes.findIndex((l) => l.kind !== "sep" && l.kind !== "dash");
+}
+
 const CLAIM_NAMES: Record<ClaimKind, string> = {
   calculatedOsmolality: "calculated osmolality",
   effectiveOsmolality: "effective osmolality",
@@ -548,8 +557,10 @@ function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
   const word = (l: Lexeme & { kind: "word" }) => {
     const entry = entryOf(l.lower);
     // Inside a row, a one-letter specimen ("(P)", "(B)" on analyser printouts) says plasma or
-    // blood, not which sample: only a specimen word names one there ("Sodium, urine").
-    if (entry?.kind === "specimen" && l.lower.length > 1) cell.specimens.add(entry.specimen);
+    // blood, not which sample: only a specimen word names one there ("Sodium, urine") — and "U",
+    // which never means blood ("Na (U) 71").
+    if (entry?.kind === "specimen" && (l.lower.length > 1 || entry.specimen === "urine"))
+      cell.specimens.add(entry.specimen);
     else if (entry?.kind === "specimen") {
       // read past
     } else if (isOsm && CALCULATED_MARKERS.has(l.lower)) cell.calculated = true;

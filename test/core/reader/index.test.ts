@@ -671,6 +671,18 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     ["Na < 100", {}, ["value.censored"]],
     ["Na 128 (> 135)", { sodium: 128 }, []],
     ["Na 128 Ref > 135", { sodium: 128 }, []],
+    // A heading that starts with a specimen opens its section, whatever else it says.
+    [
+      "Urine Studies:\nNa 71\nOsm 480\nK 35",
+      { urineSodium: 71, urineOsmolality: 480, urinePotassium: 35 },
+      [],
+    ],
+    ["Urine blorp:\nNa 130\nK 4", { urineSodium: 130, urinePotassium: 4 }, ["word.unknown"]],
+    ["URINE - spot\nNa 40", { urineSodium: 40 }, []],
+    ["urine and serum\nNa 130", { sodium: 130 }, []],
+    // "(U)" in a row is urine; "(P)" and "(B)" only say plasma or blood.
+    ["Na (U) 130", { urineSodium: 130 }, []],
+    ["Na (P) 130", { sodium: 130 }, []],
     // Dot leaders of a printed report.
     ["Sodium..........128 mmol/L\nPotassium.......4.1", { sodium: 128, potassium: 4.1 }, []],
     // A unit with a space on one side of its slash.
