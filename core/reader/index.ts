@@ -157,6 +157,8 @@ interface Cell {
   specimens: Set<Specimen>;
   /** Earlier on the same line, an analyte was qualified as urine by its own word. */
   afterInlineUrine: boolean;
+  /** No specimen of its own, after a urine section that ended (see readMessage). */
+  afterUrineSection: boolean;
   results: (Lexeme & { kind: "number" })[];
   /** The unit written right after each result, if any (index-aligned with `results`). */
   unitAfter: (Unit | "foreign" | undefined)[];
@@ -231,6 +233,24 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   const numberedHeaders: number[] = [];
   const blankLines: number[] = [];
   let section: Specimen | undefined;
+  /** Values read in the current section. */
+  let sectionValues = 0;
+  /**
+   * A urine section that ended at a blank line or a heading of no specimen after its values: what
+   * follows without a specimen of its own could be urine or blood, and is asked about.
+   */
+  let afterUrine = false;
+  const openSection = (s: Specimen | undefined) => {
+    section = s;
+    sectionValues = 0;
+    afterUrine = false;
+  };
+  const endSection = () => {
+    if (section === "urine" && sectionValues > 0) {
+      afterUrine = true;
+      section = undefined;
+    }
+  };
   let lineCount = 0;
 
   let base = 0;
@@ -240,6 +260,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     base += lineText.length + 1;
     if (lexemes.length === 0) {
       blankLines.push(lineNo);
+      endSection();
       continue;
     }
 
@@ -323,10 +344,11 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       // A heading that starts with a specimen ("Urine studies:", "URINE – spot") opens that
       // section even when other words on it are not understood (those are still reported).
       const headed = !hasNumber && specimenMatches[0]?.first === firstWord(lexemes) && specimens.size === 1;
-      if (headed && !onlyHeader) section = [...specimens][0];
+      if (headed && !onlyHeader) openSection([...specimens][0]!);
       if (onlyHeader) {
-        if (specimens.size === 1) section = [...specimens][0];
-        else if (specimens.size > 1) section = undefined;
+        if (specimens.size === 1) openSection([...specimens][0]!);
+        else if (specimens.size > 1) openSection(undefined);
+        else endSection();
         headers.push({ line: lineNo, lexemes });
         if (hasNumber) numberedHeaders.push(lineNo);
       } else {
@@ -385,6 +407,8 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       if (lineSpecimen && cell.specimens.size === 0) cell.specimens.add(lineSpecimen);
       if (cell.specimens.size === 0 && section) cell.specimens.add(section);
       cell.afterInlineUrine = inlineUrine && !lineSpecimen;
+      if (section) sectionValues++;
+      cell.afterUrineSection = afterUrine && cell.specimens.size === 0;
       if (cell.specimens.has("urine") && lineSpecimen !== "urine" && section !== "urine") inlineUrine = true;
       cell.start = lexemes[anchor.first]!.start;
       cell.end = lexemes[end - 1]?.end ?? cell.start;
@@ -537,6 +561,7 @@ function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
     end: 0,
     specimens: new Set(),
     afterInlineUrine: false,
+    afterUrineSection: false,
     results: [],
     unitAfter: [],
     units: [],
@@ -818,6 +843,14 @@ function readValue(
   }
   let specimen: Specimen = specimens[0] ?? "serum";
   const urineId = URINE_COUNTERPART[baseId];
+  if (cell.afterUrineSection) {
+    problems.push({
+      code: "specimen.unclear",
+      message: `${capitalise(NAME_OF[baseId])} ${num(result.value, 6)} comes after the urine results, past a blank line or a heading: is it urine or blood? Start each part with "Urine:" or "Serum:". Not used.`,
+      line,
+    });
+    return undefined;
+  }
   if (specimens.length === 0 && cell.afterInlineUrine && urineId) {
     problems.push({
       code: "specimen.unclear",

@@ -97,7 +97,7 @@ export const URINE_COUNTERPART: Partial<Record<AnalyteId, AnalyteId>> = {
 /** Words naming a specimen, before or after an analyte's name, or heading a section of a paste. */
 export const SPECIMEN_WORDS: Record<Specimen, readonly string[]> = {
   urine: ["urine", "urinary", "u", "ur", "spot urine", "random urine", "urine spot", "24h urine"],
-  serum: ["serum", "plasma", "s", "p", "lab", "venous", "arterial", "ser", "pl"],
+  serum: ["serum", "plasma", "s", "p", "lab", "venous", "arterial", "ser", "pl", "bloods"],
   bloodGas: [
     "blood gas",
     "blood gases",

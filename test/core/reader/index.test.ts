@@ -509,6 +509,9 @@ describe("what the reader says (each problem's words, as a resident reads them)"
   });
 
   it("names specimens, the written unit's limits and pH without a unit", () => {
+    expect(said("Urine:\nNa 40\n\nK 4")).toEqual([
+      'specimen.unclear@4: Potassium 4 comes after the urine results, past a blank line or a heading: is it urine or blood? Start each part with "Urine:" or "Serum:". Not used.',
+    ]);
     expect(said("UNa 40 serum")).toEqual([
       "specimen.conflict@1: Urine sodium 40 is labelled with two specimens (serum/plasma and urine): not used. Say which.",
     ]);
@@ -680,6 +683,14 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     ["Urine blorp:\nNa 130\nK 4", { urineSodium: 130, urinePotassium: 4 }, ["word.unknown"]],
     ["URINE - spot\nNa 40", { urineSodium: 40 }, []],
     ["urine and serum\nNa 130", { sodium: 130 }, []],
+    // A urine section ends at a blank line or a heading of no specimen after its values: what
+    // follows without a specimen of its own could be either, and is asked about.
+    ["Urine:\nNa 40\n\nNa 130 K 4", { urineSodium: 40 }, ["specimen.unclear", "specimen.unclear"]],
+    ["Urine:\nNa 40\nChemistry\nNa 130", { urineSodium: 40 }, ["specimen.unclear"]],
+    ["Urine:\nNa 40\n\nBloods:\nNa 130", { urineSodium: 40, sodium: 130 }, []],
+    ["Urine:\nNa 40\nSerum chemistry\nNa 130", { urineSodium: 40, sodium: 130 }, []],
+    ["Urine:\n\nNa 40\nK 35", { urineSodium: 40, urinePotassium: 35 }, []],
+    ["Serum:\nNa 130\n\nK 4", { sodium: 130, potassium: 4 }, []],
     // "(U)" in a row is urine; "(P)" and "(B)" only say plasma or blood.
     ["Na (U) 130", { urineSodium: 130 }, []],
     ["Na (P) 130", { sodium: 130 }, []],
