@@ -116,3 +116,39 @@ export function latestColumn(stamps: readonly Stamp[], columns: number): number 
   if (dm !== undefined && md !== undefined) return dm === md ? dm : undefined;
   return dm ?? md;
 }
+
+const ROLE_WORDS: Record<string, "result" | "low" | "high"> = {
+  result: "result",
+  results: "result",
+  value: "result",
+  low: "low",
+  lower: "low",
+  min: "low",
+  minimum: "low",
+  high: "high",
+  upper: "high",
+  max: "high",
+  maximum: "high",
+};
+
+/**
+ * A header that names a result column and the two ends of the range ("Test Result Low High",
+ * "Analyte Value Min Max"): the position of each among a row's three numbers. Undefined when the
+ * header names anything else that could be a column of results (a date, a time, "previous").
+ */
+export function rangeColumns(
+  lexemes: readonly Lexeme[],
+): { result: number; low: number; high: number } | undefined {
+  const order: ("result" | "low" | "high")[] = [];
+  for (const l of lexemes) {
+    if (l.kind === "time" || l.kind === "masked" || l.kind === "number") return undefined;
+    if (l.kind !== "word" && l.kind !== "flag") continue;
+    const role = ROLE_WORDS[l.kind === "word" ? l.lower : l.text.toLowerCase()];
+    if (role) order.push(role);
+  }
+  const result = order.indexOf("result");
+  const low = order.indexOf("low");
+  const high = order.indexOf("high");
+  if (order.length !== 3 || result < 0 || low < 0 || high < 0) return undefined;
+  return { result, low, high };
+}

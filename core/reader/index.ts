@@ -22,7 +22,7 @@ import { findIdentifiers, IDENTIFIER_LABELS, type IdentifierKind } from "../iden
 import { INPUT_KEYS, type InputKey, type LabInputs } from "../inputs.js";
 import { tokenize } from "../tokens.js";
 import type { Unit } from "../units.js";
-import { headerStamps, latestColumn } from "./columns.js";
+import { headerStamps, latestColumn, rangeColumns } from "./columns.js";
 import { type Lexeme, lexLine } from "./lexer.js";
 import { entryOf, isGlueHead, isName, matchNames, type NameEntry, type NameMatch } from "./names.js";
 import { normalise } from "./normalise.js";
@@ -707,7 +707,26 @@ function chooseColumns(
   let anyMulti = false;
   // Stryker disable next-line all: a fast path for the common case; both branches give the same result
   for (const c of cells) if (c.results.length > 1) anyMulti = true;
-  const multi = anyMulti ? cells.filter((c) => c.entry.kind !== "other" && plainResults(c).length > 1) : [];
+  let multi = anyMulti ? cells.filter((c) => c.entry.kind !== "other" && plainResults(c).length > 1) : [];
+  // "Test Result Low High": the second and third numbers of each row are its reference range.
+  const rangeHeader = multi.length > 0 ? headers.filter((h) => h.line < multi[0]!.line).at(-1) : undefined;
+  const roles = rangeHeader ? rangeColumns(rangeHeader.lexemes) : undefined;
+  if (
+    roles &&
+    multi.every((c) => {
+      const r = plainResults(c);
+      return r.length === 3 && r[roles.low]!.value <= r[roles.high]!.value;
+    })
+  ) {
+    for (const c of multi) {
+      const r = plainResults(c);
+      c.ranges.unshift({ low: r[roles.low]!.value, high: r[roles.high]!.value });
+      c.unitAfter = [c.unitAfter[roles.result]];
+      c.results = [r[roles.result]!];
+    }
+    notes.push("The low and high columns were read as each row's reference range.");
+    multi = [];
+  }
   if (multi.length === 0) {
     for (const c of cells) {
       const [only] = plainResults(c);

@@ -290,6 +290,12 @@ export const HEADER_WORDS = new Set([
   "normal",
   "low",
   "high",
+  "lower",
+  "upper",
+  "min",
+  "max",
+  "minimum",
+  "maximum",
   "previous",
   "current",
   "latest",
@@ -352,7 +358,7 @@ export const FLAG_WORDS = new Set([
 ]);
 
 /** Words that introduce a reference range: "Ref 135-145", "range: 3.5-5.1", "NR 135–145". */
-export const RANGE_INTRO = new Set(["ref", "ref.", "reference", "range", "nr", "rr", "normal", "ri"]);
+export const RANGE_INTRO = new Set(["ref", "ref.", "reference", "range", "nr", "rr", "normal", "ri", "n"]);
 
 /** Filler words read past without comment. */
 export const FILLER = new Set([

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { headerStamps, latestColumn } from "../../../core/reader/columns.js";
+import { headerStamps, latestColumn, rangeColumns } from "../../../core/reader/columns.js";
 import { lexLine } from "../../../core/reader/lexer.js";
 import { isName } from "../../../core/reader/names.js";
 
@@ -35,5 +35,20 @@ describe("result columns", () => {
     expect(latestColumn(stamps("Test Result Result"), 2)).toBeUndefined();
     expect(latestColumn(stamps("Test 2026-12-02 2026-12-02"), 2)).toBeUndefined();
     expect(latestColumn(stamps("Test 2026-12-02"), 2)).toBeUndefined();
+  });
+});
+
+describe("a header that names the range's columns", () => {
+  const header = (text: string) => lexLine(text, 0, () => false, isName);
+  it("gives the position of the result and of each end", () => {
+    expect(rangeColumns(header("Test Result Low High"))).toEqual({ result: 0, low: 1, high: 2 });
+    expect(rangeColumns(header("Analyte Min Max Value Units"))).toEqual({ result: 2, low: 0, high: 1 });
+    expect(rangeColumns(header("Test Value Lower Upper"))).toEqual({ result: 0, low: 1, high: 2 });
+  });
+  it("is no range header when an end is missing, repeated, or a time could be a column", () => {
+    expect(rangeColumns(header("Test Result Low"))).toBeUndefined();
+    expect(rangeColumns(header("Test Result Low High High"))).toBeUndefined();
+    expect(rangeColumns(header("Test Result 08:00 Low High"))).toBeUndefined();
+    expect(rangeColumns(header("Test Result Previous"))).toBeUndefined();
   });
 });

@@ -694,6 +694,22 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     // "(U)" in a row is urine; "(P)" and "(B)" only say plasma or blood.
     ["Na (U) 130", { urineSodium: 130 }, []],
     ["Na (P) 130", { sodium: 130 }, []],
+    // Columns named Low and High (or Min and Max) are each row's reference range, in any order;
+    // a low above the high, or a header that names no range, is asked about.
+    [
+      "Test\tResult\tLow\tHigh\nSodium\t128\t135\t145\nPotassium\t2.9\t3.5\t5.1",
+      { sodium: 128, potassium: 2.9 },
+      [],
+    ],
+    ["Test Low High Result\nNa 135 145 128", { sodium: 128 }, []],
+    [
+      "Analyte Value Min Max Units\nGlucose 9.4 3.9 5.5 mmol/L\nOsm 310 275 295 mOsm/kg",
+      { glucose: 9.4, measuredOsmolality: 310 },
+      [],
+    ],
+    ["Test Result Low High\nNa 128 145 135", {}, ["columns.ambiguous"]],
+    ["Test Result Previous\nNa 128 131", {}, ["columns.ambiguous"]],
+    ["K 2.9 (N: 3.5-5.1)", { potassium: 2.9 }, []],
     // Dot leaders of a printed report.
     ["Sodium..........128 mmol/L\nPotassium.......4.1", { sodium: 128, potassium: 4.1 }, []],
     // A unit with a space on one side of its slash.
@@ -749,6 +765,13 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     expect(one("EtOH 5 mg/dL (<10)").labRange).toEqual({ high: 10 });
     expect(one("Na 140 ref 135-145").labRange).toEqual({ low: 135, high: 145 });
     expect(one("K 4 ((3.5-5.1)").labRange).toEqual({ low: 3.5, high: 5.1 });
+    expect(one("Test Low High Result\nNa 135 145 128")).toMatchObject({
+      written: 128,
+      labRange: { low: 135, high: 145 },
+    });
+    expect(readMessage("Test Result Low High\nNa 128 135 145").notes).toEqual([
+      "The low and high columns were read as each row's reference range.",
+    ]);
     expect(one("Na 124 H (135-145)")).toMatchObject({ flag: "H", labRange: { low: 135, high: 145 } });
     expect(one("EtOH 5 ref <10 mg/dL").labRange).toEqual({ high: 10 });
     expect(one("Na 140").flag).toBeUndefined();
