@@ -147,9 +147,15 @@ export function assessOptions(
       `Osmolality judged against the lab's printed range, ${printed.low}–${printed.high} mOsm/kg.`,
     );
   }
+  // Numbers are shown first in the units the message was written in: the channel's setting, or
+  // else the unit its glucose (or urea, or ethanol) was written in.
+  const written = reading.values.find((v) => v.key === "glucose" || v.key === "urea" || v.key === "ethanol");
+  const system =
+    unitSystem ??
+    (written?.unit === "mmol/L" ? "si" : written?.unit === "mg/dL" ? "conventional" : undefined);
   return {
     osmolalityRange,
-    ...(unitSystem && { unitSystem }),
+    ...(system && { unitSystem: system }),
     ...(config.anionGapRange && { anionGapRange: config.anionGapRange }),
     ...(glucose && { glucoseWritten: { value: glucose.written, unit: glucose.unit } }),
   };

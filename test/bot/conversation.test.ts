@@ -324,3 +324,14 @@ describe("configuration", () => {
     });
   });
 });
+
+describe("numbers in the units they were written in", () => {
+  it("a critical glucose is headlined in the unit the message used, when the channel sets none", async () => {
+    // Invented values; 45 mmol/L × 18.0156 = 811 mg/dL (REFERENCES.md §6 [D]).
+    expect((await ask("glu 45 mmol/L Na 128")).headline).toMatch(/^Critical high glucose 45 mmol\/L/);
+    expect((await ask("glu 811 mg/dL Na 128")).headline).toMatch(/^Critical high glucose 811 mg\/dL/);
+    expect((await ask("urea 12 mmol/L glu 45 mmol/L Na 128")).interpretation.join(" ")).toContain(
+      "45 mmol/L (811 mg/dL)",
+    );
+  });
+});
