@@ -339,11 +339,10 @@ function alcohol(
  * bits of a double, so "methanol 1000 mg/dL" must not fall just outside a limit of 1000 mg/dL.
  */
 export function isPlausible(analyte: Analyte, canonical: number): boolean {
-  const { min, max } = plausibleLimits(analyte);
-  return canonical >= min && canonical <= max;
+  return canonical >= analyte.plausible.min * (1 - 1e-12) && canonical <= analyte.plausible.max * (1 + 1e-12);
 }
 
-/** The typo guard's limits in the canonical unit, widened by a part in 10¹² (see isPlausible). */
+/** The typo guard's limits in the canonical unit, widened by a part in 10¹² as in isPlausible. */
 export function plausibleLimits(analyte: Analyte): { min: number; max: number } {
   return { min: analyte.plausible.min * (1 - 1e-12), max: analyte.plausible.max * (1 + 1e-12) };
 }

@@ -177,6 +177,7 @@ interface Cell {
 
 const NO_INDEXES: ReadonlySet<number> = new Set();
 const NO_MASK = new Uint8Array(0);
+const NO_LABELS: never[] = [];
 const NO_SPECIMEN_LIST: Specimen[] = [];
 const NO_SPECIMENS: ReadonlyMap<number, never> = new Map<number, never>();
 
@@ -362,15 +363,15 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
     // rest of the line, up to the next label. Later in a line, a label is one only when a name
     // follows it: in "Sodium, urine: 40" the word qualifies the sodium.
     const firstMeaningful = firstWord(lexemes);
-    const anchorStarts = new Set(anchors.map((a) => a.first));
-    const labels = specimenMatches.filter((m) => {
+    // Stryker disable next-line all: a fast path for the common case; both branches give the same result
+    const labels: SpecimenMatch[] = specimenMatches.length === 0 ? NO_LABELS : [];
+    for (const m of specimenMatches) {
       const after = lexemes[m.last + 1];
-      if (after?.kind !== "sep" || after.char !== ":") return false;
-      if (m.first === firstMeaningful) return true;
+      if (after?.kind !== "sep" || after.char !== ":") continue;
       let j = m.last + 2;
       while (lexemes[j]?.kind === "sep") j++;
-      return anchorStarts.has(j);
-    });
+      if (m.first === firstMeaningful || anchors.some((a) => a.first === j)) labels.push(m);
+    }
 
     // Words before the first name: a list number, a label, a time — or something not understood.
     let unknownBefore = 0;
