@@ -296,7 +296,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       i += span - 1;
     }
 
-    const matches = mergeAnionGapPotassium(lexemes, matchNames(lexemes));
+    const matches = mergeBracketedAlias(lexemes, mergeAnionGapPotassium(lexemes, matchNames(lexemes)));
     type SpecimenMatch = NameMatch & { entry: { kind: "specimen"; specimen: Specimen } };
     const anchors: NameMatch[] = [];
     const specimenMatches: SpecimenMatch[] = [];
@@ -520,6 +520,31 @@ const CLAIM_NAMES: Record<ClaimKind, string> = {
   correctedSodium: "corrected sodium",
   anionGap: "anion gap",
 };
+
+/** "Ketones (BHB) 4.1", "Sodium (Na) 128": a name and its own alias in brackets are one name. */
+function mergeBracketedAlias(lexemes: readonly Lexeme[], matches: NameMatch[]): NameMatch[] {
+  if (matches.length < 2) return matches;
+  const out: NameMatch[] = [];
+  for (let i = 0; i < matches.length; i++) {
+    const m = matches[i]!;
+    const next = matches[i + 1];
+    if (
+      next &&
+      m.entry.kind === "analyte" &&
+      next.entry.kind === "analyte" &&
+      next.entry.id === m.entry.id &&
+      next.first === m.last + 2 &&
+      lexemes[m.last + 1]?.kind === "open" &&
+      lexemes[next.last + 1]?.kind === "close"
+    ) {
+      out.push({ ...m, last: next.last + 1 });
+      i++;
+      continue;
+    }
+    out.push(m);
+  }
+  return out;
+}
 
 /** "Anion Gap K+", "AG (K+)", "AnGap,K+": the K belongs to the gap's name, not a potassium. */
 function mergeAnionGapPotassium(lexemes: readonly Lexeme[], matches: NameMatch[]): NameMatch[] {

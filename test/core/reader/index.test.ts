@@ -710,6 +710,10 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     ["Test Result Low High\nNa 128 145 135", {}, ["columns.ambiguous"]],
     ["Test Result Previous\nNa 128 131", {}, ["columns.ambiguous"]],
     ["K 2.9 (N: 3.5-5.1)", { potassium: 2.9 }, []],
+    // A name with its own alias in brackets is one name.
+    ["Ketones (BHB) 4.1 mmol/L", { betaHydroxybutyrate: 4.1 }, []],
+    ["Sodium (Na+) 128 mmol/L (135-145)", { sodium: 128 }, []],
+    ["Na (K) 4", { potassium: 4 }, ["value.missing"]],
     // Dot leaders of a printed report.
     ["Sodium..........128 mmol/L\nPotassium.......4.1", { sodium: 128, potassium: 4.1 }, []],
     // A unit with a space on one side of its slash.
