@@ -508,6 +508,8 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
   return reading;
 }
 
+const lexemeLower = (l: Lexeme | undefined) => (l?.kind === "word" ? l.lower : undefined);
+
 /** The index of a line's first piece that is not a separator or a dash. */
 function firstWord(lexemes: readonly Lexeme[]): number {
   return lexemes.findIndex((l) => l.kind !== "sep" && l.kind !== "dash");
@@ -521,25 +523,32 @@ const CLAIM_NAMES: Record<ClaimKind, string> = {
   anionGap: "anion gap",
 };
 
-/** "Ketones (BHB) 4.1", "Sodium (Na) 128": a name and its own alias in brackets are one name. */
+/**
+ * "Ketones (BHB) 4.1", "Sodium (Na) 128": a name and its own alias in brackets are one name; after
+ * another analyte's name, "(BG)" says blood gas ("Na+ (BG) 131"), not a blood glucose.
+ */
 function mergeBracketedAlias(lexemes: readonly Lexeme[], matches: NameMatch[]): NameMatch[] {
   if (matches.length < 2) return matches;
   const out: NameMatch[] = [];
   for (let i = 0; i < matches.length; i++) {
     const m = matches[i]!;
     const next = matches[i + 1];
-    if (
-      next &&
+    const bracketed =
+      next !== undefined &&
       m.entry.kind === "analyte" &&
       next.entry.kind === "analyte" &&
-      next.entry.id === m.entry.id &&
       next.first === m.last + 2 &&
+      next.first === next.last &&
       lexemes[m.last + 1]?.kind === "open" &&
-      lexemes[next.last + 1]?.kind === "close"
-    ) {
-      out.push({ ...m, last: next.last + 1 });
-      i++;
-      continue;
+      lexemes[next.last + 1]?.kind === "close";
+    if (bracketed && next.entry.kind === "analyte" && m.entry.kind === "analyte") {
+      const gas =
+        next.entry.id === "glucose" && m.entry.id !== "glucose" && lexemeLower(lexemes[next.first]) === "bg";
+      if (next.entry.id === m.entry.id || gas) {
+        out.push({ ...m, last: next.last + 1, ...(gas && { entry: { ...m.entry, specimen: "bloodGas" } }) });
+        i++;
+        continue;
+      }
     }
     out.push(m);
   }

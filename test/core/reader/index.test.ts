@@ -714,6 +714,11 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     ["Ketones (BHB) 4.1 mmol/L", { betaHydroxybutyrate: 4.1 }, []],
     ["Sodium (Na+) 128 mmol/L (135-145)", { sodium: 128 }, []],
     ["Na (K) 4", { potassium: 4 }, ["value.missing"]],
+    // "(BG)" after another name is the blood gas; alone or after glucose it is a blood glucose.
+    ["Na+ (BG) 131 Na 128", {}, ["value.specimenConflict"]],
+    ["K+ (BG) 5.1", { potassium: 5.1 }, []],
+    ["glucose (BG) 8.1 mmol/L", { glucose: 8.1 }, []],
+    ["BG 8.1 mmol/L", { glucose: 8.1 }, []],
     // Dot leaders of a printed report.
     ["Sodium..........128 mmol/L\nPotassium.......4.1", { sodium: 128, potassium: 4.1 }, []],
     // A unit with a space on one side of its slash.
@@ -779,6 +784,7 @@ describe("how a paste's parts are read (rows, sections, labels, brackets, tags)"
     expect(one("Na 124 H (135-145)")).toMatchObject({ flag: "H", labRange: { low: 135, high: 145 } });
     expect(one("EtOH 5 ref <10 mg/dL").labRange).toEqual({ high: 10 });
     expect(one("Na 140").flag).toBeUndefined();
+    expect(one("Na (BG) 131").specimen).toBe("bloodGas");
     expect(one("Na 140").labRange).toBeUndefined();
     expect(one("Na 140").below).toBeUndefined();
     expect(one("EtOH <10 mg/dL").below).toBe(true);
