@@ -1,9 +1,10 @@
 // Prints the last `npm run mutate` report (reports/mutation/mutation.json) as Markdown: the score of
 // each file, and its surviving mutants grouped by line, so they can be killed or explained in
-// docs/quality.md. Usage: node scripts/mutation-summary.mjs [--survivors]
+// docs/quality.md. Usage: node scripts/mutation-summary.mjs [report.json] [--survivors]
 import { readFileSync } from "node:fs";
 
-const report = JSON.parse(readFileSync("reports/mutation/mutation.json", "utf8"));
+const reportFile = process.argv.slice(2).find((a) => !a.startsWith("--")) ?? "reports/mutation/mutation.json";
+const report = JSON.parse(readFileSync(reportFile, "utf8"));
 const showSurvivors = process.argv.includes("--survivors");
 const rows = [];
 const survivors = [];
