@@ -32,12 +32,13 @@ export interface PlanReading {
 
 const NUM = "(\\d{1,5}(?:[.,]\\d{1,4})?)";
 
+// Half-normal saline before normal saline: "half normal saline" holds "normal saline".
 const FLUIDS: [RegExp, string][] = [
-  [/\b(?:0[.,]9\s?%|normal saline|\bns\b)(?:\s?(?:nacl|saline|sodium chloride))?/i, "saline-0.9"],
   [
     /\b(?:0[.,]45\s?%|half[-\s]normal saline|half normal)(?:\s?(?:nacl|saline|sodium chloride))?/i,
     "saline-0.45",
   ],
+  [/\b(?:0[.,]9\s?%|normal saline|\bns\b)(?:\s?(?:nacl|saline|sodium chloride))?/i, "saline-0.9"],
   [/\b(?:3\s?%\s?(?:nacl|saline|sodium chloride)?|hypertonic saline)/i, "saline-3"],
   [/\b5\s?%\s?(?:nacl|saline|sodium chloride)/i, "saline-5"],
   [/\b(?:lactated ringer'?s?|ringer'?s? lactate|\blr\b|\brl\b)/i, "lactated-ringers"],

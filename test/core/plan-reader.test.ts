@@ -135,3 +135,124 @@ describe("every part of a plan, and what is refused", () => {
     );
   });
 });
+
+describe("a plan's limits at their edges, and the spellings of each fluid", () => {
+  // Every limit accepted at its edge and refused just past it (core/fluids.ts ranges; the infusate,
+  // potassium and target limits are our own plausibility bounds).
+  const edges: [string, Record<string, unknown>, string[]][] = [
+    ["Na 120 fluid Na 1000", { infusate: { sodium: 1000 } }, []],
+    ["Na 120 fluid Na 1000.5", {}, ["plan.infusateImplausible"]],
+    ["Na 120 fluid Na 77 K 200", { infusate: { potassium: 200 } }, []],
+    ["Na 120 fluid Na 77 K 200.5", {}, ["plan.infusateImplausible"]],
+    ["Na 120 1 L NS + KCl 200", { addedPotassium: 200 }, []],
+    ["Na 120 1 L NS + KCl 200.5", {}, ["plan.potassiumImplausible"]],
+    ["Na 160 TBW 0.3", { tbw: 0.3 }, []],
+    ["Na 160 TBW 0.29", {}, ["plan.tbwImplausible"]],
+    ["Na 160 TBW 250", { tbw: 250 }, []],
+    ["Na 160 TBW 250.1", {}, ["plan.tbwImplausible"]],
+    ["Na 120 0.5 kg", { weightKg: 0.5 }, []],
+    ["Na 120 0.49 kg", {}, ["plan.weightImplausible"]],
+    ["Na 120 350 kg", { weightKg: 350 }, []],
+    ["Na 120 350.1 kg", {}, ["plan.weightImplausible"]],
+    ["Na 120 10 mL", { litres: 0.01 }, []],
+    ["Na 120 9 mL", {}, ["plan.volumeImplausible"]],
+    ["Na 120 10 L", { litres: 10 }, []],
+    ["Na 120 10.1 L", {}, ["plan.volumeImplausible"]],
+    ["Na 120 target 0.5", { target: 0.5 }, []],
+    ["Na 120 target 0.4", {}, ["plan.targetImplausible"]],
+    ["Na 120 target 20", { target: 20 }, []],
+    ["Na 120 target 20.5", {}, ["plan.targetImplausible"]],
+    // Units whose name starts like another: "lb" and "lbs" are pounds, "l" and "litres" litres.
+    ["Na 120 100 lbs", { weightKg: 100 * 0.45359237 }, []],
+    ["Na 120 100 kgs", { weightKg: 100 }, []],
+    ["Na 120 2 litres", { litres: 2 }, []],
+    ["Na 120 500 ML", { litres: 0.5 }, []],
+    // Sex and age words: only the whole word decides.
+    ["Na 120 female", { sex: "female" }, []],
+    ["Na 120 woman", { sex: "female" }, []],
+    ["Na 120 male adult", { sex: "male", age: "adult" }, []],
+    ["Na 120 girl", { sex: "female", age: "child" }, []],
+    ["Na 120 man", { sex: "male" }, []],
+    ["Na 120 pediatric", { age: "child" }, []],
+    ["Na 120 older", { age: "elderly" }, []],
+    ["Na 120 elderly", { age: "elderly" }, []],
+    ["Na 120 age: 40", { age: "adult" }, []],
+    ["Na 120 age40", { age: "adult" }, []],
+    ["Na 120 aged  70", { age: "elderly" }, []],
+    // The change wanted, in its longer spellings.
+    ["Na 120 3% how  much do I need for +5", { target: 5 }, []],
+    ["Na 120 how much 3% to raise  it  by  5", { target: 5 }, []],
+    ["Na 120 to  raise 4", { target: 4 }, []],
+    ["Na 150 to take it  down by 3", { target: -3 }, []],
+    ["Na 150 to bring  it down 3 mmol/L", { target: -3 }, []],
+    ["Na 150 to bring down 3", { target: -3 }, []],
+    ["Na 120 target + 5", { target: 5 }, []],
+    ["Na 120 by 5mmol", { target: 5 }, []],
+    ["Na 120 how   much", {}, ["plan.targetMissing"]],
+    ["Na 160 freewater", { freeWater: true }, []],
+    ["Na 160 free water deficit", { freeWater: true }, []],
+    ["Na 160 free waterdeficit", { freeWater: true }, []],
+    ["Na 120 high risk", { highRisk: true }, []],
+    ["Na 120 highrisk", { highRisk: true }, []],
+    ["Na 120 alcohol", { highRisk: true }, []],
+    ["Na 120 alcoholuse", { highRisk: true }, []],
+    ["Na 120 alcohol  use", { highRisk: true }, []],
+    ["Na 120 hypokalaemia", { highRisk: true }, []],
+  ];
+  it.each(edges)("%j", (text, plan, problems) => {
+    const r = readPlan(text);
+    expect(r.plan).toMatchObject(plan);
+    expect(r.problems.map((p) => p.code)).toEqual(problems);
+    expect(r.rest.replace(/[+\s]+/g, " ").trim()).toMatch(/^Na \d+$/);
+  });
+
+  const fluids: [string, string][] = [
+    ["0.9%NaCl", "saline-0.9"],
+    ["0,9 % saline", "saline-0.9"],
+    ["normal saline", "saline-0.9"],
+    ["0.9% sodium chloride", "saline-0.9"],
+    ["0.45%saline", "saline-0.45"],
+    ["0.45 % NaCl", "saline-0.45"],
+    // Once read as normal saline (the 0.9 % pattern holds "normal saline").
+    ["half-normal saline", "saline-0.45"],
+    ["half normal saline", "saline-0.45"],
+    ["3 % NaCl", "saline-3"],
+    ["3%", "saline-3"],
+    ["5 % NaCl", "saline-5"],
+    ["5%saline", "saline-5"],
+    ["lactated ringer", "lactated-ringers"],
+    ["lactated ringers", "lactated-ringers"],
+    ["lactated ringer's", "lactated-ringers"],
+    ["ringers lactate", "lactated-ringers"],
+    ["ringer lactate", "lactated-ringers"],
+    ["RL", "lactated-ringers"],
+    ["hartmann", "hartmanns"],
+    ["hartmanns", "hartmanns"],
+    ["balanced", "balanced"],
+    ["balanced multielectrolyte solution", "balanced"],
+    ["balanced multi-electrolyte", "balanced"],
+    ["5 % dextrose", "dextrose-5"],
+    ["5%glucose", "dextrose-5"],
+    ["dextrose 5%", "dextrose-5"],
+    ["dextrose 5 %", "dextrose-5"],
+    ["8.4 % bicarb", "bicarbonate-8.4"],
+    ["8.4%sodium bicarbonate", "bicarbonate-8.4"],
+    ["8,4% NaHCO3", "bicarbonate-8.4"],
+  ];
+  it.each(fluids)("1 L %s is %s, and every word of it is taken", (fluid, id) => {
+    const r = readPlan(`Na 120 1 L ${fluid}`);
+    expect(r.plan.infusate?.id).toBe(id);
+    expect(r.rest.replace(/[+\s]+/g, " ").trim()).toBe("Na 120");
+  });
+
+  it("a word taken becomes a + and spaces of the same length, so the words keep their places", () => {
+    const text = "Na 120 70 kg woman 1 L Hartmann's";
+    const r = readPlan(text);
+    expect(r.rest).toHaveLength(text.length);
+    expect(r.rest).toBe("Na 120 +  +  +     + + +         ");
+  });
+
+  it("a custom fluid is not overridden by a named fluid later in the message", () => {
+    expect(readPlan("Na 120 fluid Na 77 1 L NS").plan.infusate).toMatchObject({ sodium: 77, potassium: 0 });
+  });
+});
