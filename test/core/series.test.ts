@@ -247,3 +247,41 @@ describe("every way of writing a time, and what is asked", () => {
     expect(clockAt(9 * 60 + 5, 0)).toBe("09:05");
   });
 });
+
+describe("a series' segments and the values each point keeps", () => {
+  it("several times on one line starting with a time split before each time", () => {
+    const s = readSeries("22:10 Na 127 04:30 Na 131 06:10 Na 133");
+    expect(s.points.map((p) => [p.hours, p.sodium])).toEqual([
+      [0, 127],
+      [380 / 60, 131],
+      [8, 133],
+    ]);
+    expect(s.problems).toEqual([]);
+  });
+
+  it("a glucose beside each sodium is kept with its point, in hours as in clock times", () => {
+    expect(readSeries("Na 127 glucose 45 mmol/L (0 h)\nNa 133 glucose 20 mmol/L (6 h)").points).toEqual([
+      { hours: 0, sodium: 127, glucose: 45 },
+      { hours: 6, sodium: 133, glucose: 20 },
+    ]);
+    // Without a glucose, a point has no glucose key at all (the JSON contract stays small).
+    expect(Object.keys(readSeries("Na 118 (0 h) 121 (6 h)").points[1]!)).toEqual(["hours", "sodium"]);
+  });
+
+  it("a time just after midnight written after one just before it is the next day", () => {
+    expect(readSeries("Na 120 at 23:59, 122 at 00:01").points.map((p) => p.hours)).toEqual([0, 2 / 60]);
+  });
+
+  it("the channel's units reach each point's reader: a unitless glucose is read in them", () => {
+    const si = readSeries("Na 127 glu 45 (0 h)\nNa 133 glu 20 (6 h)", { unitSystem: "si" });
+    expect(si.points.map((p) => p.glucose)).toEqual([45, 20]);
+    const none = readSeries("Na 127 glu 45 (0 h)\nNa 133 glu 20 (6 h)");
+    expect(none.points.every((p) => p.glucose === undefined)).toBe(true);
+  });
+
+  it("an ambiguous time stops the series even when the other points are well written", () => {
+    const s = readSeries("Na 118 at 22:00\nNa 120 at 9\nNa 124 at 06:00");
+    expect(s.points).toEqual([]);
+    expect(s.timed).toBe(true);
+  });
+});
