@@ -128,7 +128,7 @@ describe("the sodium chart", () => {
     const chart = await drawChart({ tag: "bed 12", trend: t });
     const png = PNG.sync.read(chart.png);
     expect([png.width, png.height]).toEqual([640, 360]);
-    expect(chart.png.length).toBeLessThan(16_000); // small enough for a Teams card's data URI
+    expect(chart.png.length).toBeLessThan(16_000); // bytes: small enough for a Teams card's data URI
     expect(chart.name).toBe("sodium-bed-12.png");
     // Text was drawn (the font loaded): the title row has dark pixels.
     const dark = (y: number) => {
