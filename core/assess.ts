@@ -170,15 +170,15 @@ function flagCritical(inputs: LabInputs, findings: Finding[], cautions: Set<Caut
     const value = inputs[key];
     const critical = ANALYTES[key].critical;
     if (value === undefined || !critical) continue;
+    const low = critical.low !== undefined && value < critical.low;
+    const high = critical.high !== undefined && value > critical.high;
+    if (!low && !high) continue;
     const shown =
       key !== "glucose"
         ? `${num(value)} mmol/L`
         : si
           ? `${num(value, 1)} mmol/L (${fmt(glucoseMgPerDl(value), 0)} mg/dL)`
           : `${fmt(glucoseMgPerDl(value), 0)} mg/dL (${num(value, 1)} mmol/L)`;
-    const low = critical.low !== undefined && value < critical.low;
-    const high = critical.high !== undefined && value > critical.high;
-    if (!low && !high) continue;
     findings.push({
       code: "critical.value",
       severity: "danger",

@@ -476,7 +476,11 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
           : `${onLines(orphanLines)} a number with no name before it, so it was not used. Write the name first, like Na 128.`,
     });
   }
-  const unclear = [...new Set([...unclearLines, ...partlyUnclear])].sort((a, b) => a - b);
+  const unclear =
+    // Stryker disable next-line all: a fast path for the common case; both branches give the same result
+    unclearLines.length + partlyUnclear.length === 0
+      ? unclearLines
+      : [...new Set([...unclearLines, ...partlyUnclear])].sort((a, b) => a - b);
   if (unclear.length > 0) {
     problems.push({
       code: "word.unknown",
@@ -1160,6 +1164,8 @@ function otherUnitThatFits(analyte: Analyte, value: number, used: Unit): Unit | 
  * used. A blood-gas value beside a lab one is named by specimen.
  */
 function mergeDuplicates(values: ReadValue[], problems: Problem[]): ReadValue[] {
+  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
+  if (!hasRepeatedKey(values)) return values.length < 2 ? values : values.slice().sort(byKeyOrder);
   const byKey = new Map<InputKey, ReadValue[]>();
   for (const v of values) {
     const list = byKey.get(v.key);
@@ -1199,32 +1205,42 @@ function mergeDuplicates(values: ReadValue[], problems: Problem[]): ReadValue[] 
       message: `${capitalise(name)} given more than once with different values (${shown.join(", ")}): none of them was used. Send the one to calculate with.${extra}`,
     });
   }
-  return kept.length < 2 ? kept : kept.sort((a, b) => KEY_ORDER[a.key] - KEY_ORDER[b.key]);
+  return kept.length < 2 ? kept : kept.sort(byKeyOrder);
 }
 
-const KEY_ORDER = Object.fromEntries(INPUT_KEYS.map((k, i) => [k, i])) as Record<InputKey, number>;
+/** Whether two values share an input (a message holds a handful, so pairs are cheaper than a map). */
+function hasRepeatedKey(values: readonly ReadValue[]): boolean {
+  for (let i = 1; i < values.length; i++)
+    for (let j = 0; j < i; j++) if (values[i]!.key === values[j]!.key) return true;
+  return false;
+}
+
+const KEY_ORDER = new Map<InputKey, number>(INPUT_KEYS.map((k, i) => [k, i]));
+const byKeyOrder = (a: ReadValue, b: ReadValue) => KEY_ORDER.get(a.key)! - KEY_ORDER.get(b.key)!;
 
 function echoOf(values: ReadValue[]): string {
-  // Stryker disable next-line all: a fast path for the common case; both branches give the same result
-  if (values.length === 0) return "";
-  return values
-    .map((v) => {
-      const analyte = ANALYTES[v.analyte];
-      if (v.unit === "pH") return `pH ${num(v.written, 6)}`;
-      const shown = `${analyte.label} ${v.below ? "<" : ""}${num(v.written, 6)} ${v.unit}`;
-      const converted =
-        v.unit !== analyte.canonicalUnit || v.analyte === "bun"
-          ? ` = ${num(v.canonical)} ${analyte.canonicalUnit}${v.analyte === "bun" ? " urea" : ""}`
-          : "";
-      const specimen = v.specimen === "bloodGas" ? " (blood gas)" : "";
-      const range =
-        v.key === "measuredOsmolality" && v.labRange?.low !== undefined && v.labRange.high !== undefined
-          ? ` (lab range ${num(v.labRange.low)}–${num(v.labRange.high)})`
-          : "";
-      const source = v.unitSource === "channel" ? " (unit from the channel's setting)" : "";
-      return shown + converted + specimen + range + source;
-    })
-    .join(", ");
+  // Joined with +=: the result stays a rope until a view prints it (the first view does not).
+  let echo = "";
+  for (let i = 0; i < values.length; i++)
+    echo += i === 0 ? echoOfValue(values[i]!) : `, ${echoOfValue(values[i]!)}`;
+  return echo;
+}
+
+function echoOfValue(v: ReadValue): string {
+  const analyte = ANALYTES[v.analyte];
+  if (v.unit === "pH") return `pH ${num(v.written, 6)}`;
+  const shown = `${analyte.label} ${v.below ? "<" : ""}${num(v.written, 6)} ${v.unit}`;
+  const converted =
+    v.unit !== analyte.canonicalUnit || v.analyte === "bun"
+      ? ` = ${num(v.canonical)} ${analyte.canonicalUnit}${v.analyte === "bun" ? " urea" : ""}`
+      : "";
+  const specimen = v.specimen === "bloodGas" ? " (blood gas)" : "";
+  const range =
+    v.key === "measuredOsmolality" && v.labRange?.low !== undefined && v.labRange.high !== undefined
+      ? ` (lab range ${num(v.labRange.low)}–${num(v.labRange.high)})`
+      : "";
+  const source = v.unitSource === "channel" ? " (unit from the channel's setting)" : "";
+  return shown + converted + specimen + range + source;
 }
 
 /** Writes typed inputs back as a message the reader reads to the same inputs (full precision). */
