@@ -6,21 +6,23 @@
  */
 import type { Lexeme } from "./lexer.js";
 
-const MONTHS: Record<string, number> = {
-  jan: 1,
-  feb: 2,
-  mar: 3,
-  apr: 4,
-  may: 5,
-  jun: 6,
-  jul: 7,
-  aug: 8,
-  sep: 9,
-  sept: 9,
-  oct: 10,
-  nov: 11,
-  dec: 12,
-};
+/** Month names, each in full and in its usual short forms ("Dec", "Sept", "December"). */
+const MONTHS: Record<string, number> = Object.fromEntries(
+  [
+    ["january", "jan"],
+    ["february", "feb"],
+    ["march", "mar"],
+    ["april", "apr"],
+    ["may"],
+    ["june", "jun"],
+    ["july", "jul"],
+    ["august", "aug"],
+    ["september", "sep", "sept"],
+    ["october", "oct"],
+    ["november", "nov"],
+    ["december", "dec"],
+  ].flatMap((names, i) => names.map((name) => [name, i + 1])),
+);
 const LATEST = new Set(["current", "latest", "now", "today", "new"]);
 const EARLIER = new Set(["previous", "prior", "earlier", "yesterday", "old", "last"]);
 
@@ -55,7 +57,7 @@ function parseDate(
     const y = m[3] ? Number(m[3]) % 100 : 0;
     return { dm: [y, b, a], md: [y, a, b] };
   }
-  m = /^(\d{1,2})[-\s]?([a-z]{3,4})[a-z]*(?:[-\s]?(\d{2,4}))?$/i.exec(text);
+  m = /^(\d{1,2})[-\s]?([a-z]{3,9})(?:[-\s]?(\d{2,4}))?$/i.exec(text);
   if (m && MONTHS[m[2]!.toLowerCase()]) {
     const ymd: [number, number, number] = [
       m[3] ? Number(m[3]) % 100 : 0,

@@ -42,14 +42,15 @@ export const ANALYTE_ALIASES: Record<AnalyteId, readonly string[]> = {
     "posm",
     "s-osm",
     "p-osm",
-    "mosm",
+    // Not "mosm": it is read as the unit (mOsm/kg) wherever it stands.
   ],
   ethanol: ["etoh", "ethanol", "alcohol", "blood alcohol", "ethyl alcohol"],
   methanol: ["meoh", "methanol"],
   ethyleneGlycol: ["ethylene glycol", "ethyleneglycol", "eg"],
   isopropanol: ["isopropanol", "isopropyl alcohol", "isopropyl", "ipa"],
   acetone: ["acetone"],
-  propyleneGlycol: ["propylene glycol", "propyleneglycol", "pg"],
+  // Not "pg": it is a unit (picograms, FOREIGN_UNITS below) and is read as one.
+  propyleneGlycol: ["propylene glycol", "propyleneglycol"],
   mannitol: ["mannitol"],
   pH: ["ph"],
   betaHydroxybutyrate: [

@@ -1,9 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { ANALYTE_IDS } from "../../../core/analytes.js";
+import { ANALYTE_IDS, ANALYTES, type AnalyteId, type Specimen } from "../../../core/analytes.js";
+import { readMessage } from "../../../core/reader/index.js";
 import {
   ANALYTE_ALIASES,
   BLOOD_GAS_ALIASES,
   CLAIM_ALIASES,
+  type ClaimKind,
   SPECIMEN_WORDS,
 } from "../../../core/reader/vocabulary.js";
 
@@ -37,5 +39,51 @@ describe("the vocabulary", () => {
   it("urine sodium is never spelt like the serum one", () => {
     expect(ANALYTE_ALIASES.sodium).not.toContain("una");
     expect(ANALYTE_ALIASES.urineSodium).toContain("una");
+  });
+});
+
+describe("every spelling, read in a message", () => {
+  // Each spelling of the vocabulary, written before a value in its analyte's canonical unit (the
+  // middle of its typo guard), must read as that analyte and specimen: a spelling dropped from the
+  // lists, or moved to another analyte, fails its own row. (This table found two spellings that
+  // could never be read as names, "mosm" and "pg", because both are read as units; they are gone.)
+  const message = (name: string, id: AnalyteId) => {
+    const a = ANALYTES[id];
+    const value = Math.round(((a.plausible.min + a.plausible.max) / 2) * 10) / 10;
+    return id === "pH" ? `${name} ${value}` : `${name} ${value} ${a.canonicalUnit}`;
+  };
+  const rows = (aliases: Partial<Record<AnalyteId, readonly string[]>>) =>
+    Object.entries(aliases).flatMap(([id, names]) => names!.map((n) => [n, id as AnalyteId] as const));
+
+  it.each(rows(ANALYTE_ALIASES))("%s reads as %s", (name, id) => {
+    const reading = readMessage(message(name, id));
+    expect(reading.values.map((v) => v.analyte)).toEqual([id]);
+    expect(reading.values[0]!.specimen).toBe(id.startsWith("urine") ? "urine" : "serum");
+  });
+
+  it.each(rows(BLOOD_GAS_ALIASES))("%s reads as %s on the blood gas", (name, id) => {
+    const reading = readMessage(message(name, id));
+    expect(reading.values.map((v) => [v.analyte, v.specimen])).toEqual([[id, "bloodGas"]]);
+  });
+
+  it.each(
+    Object.entries(SPECIMEN_WORDS).flatMap(([s, words]) => words.map((w) => [w, s as Specimen] as const)),
+  )("%s before a sodium reads as %s", (word, specimen) => {
+    // 60 for urine, 140 for blood: each inside its own typo guard.
+    const reading = readMessage(`${word} Na ${specimen === "urine" ? 60 : 140} mmol/L`);
+    const key = specimen === "urine" ? "urineSodium" : "sodium";
+    expect(reading.values.map((v) => [v.key, v.specimen])).toEqual([[key, specimen]]);
+  });
+
+  it.each(
+    Object.entries(CLAIM_ALIASES).flatMap(([kind, names]) =>
+      names.map((n) => [n, kind as ClaimKind] as const),
+    ),
+  )("%s is a claim of %s, never an input", (name, kind) => {
+    const reading = readMessage(`Na 140 K 4 Cl 100 HCO3 24 glucose 5 mmol/L urea 5 mmol/L ${name} 12`);
+    expect(reading.claims.map((c) => c.kind)).toEqual([kind]);
+    expect(reading.values.map((v) => v.key).sort()).toEqual(
+      ["bicarbonate", "chloride", "glucose", "potassium", "sodium", "urea"].sort(),
+    );
   });
 });
