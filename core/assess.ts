@@ -112,13 +112,14 @@ export function assess(inputs: LabInputs, options: AssessOptions = {}): Assessme
   findings.push(...tonicity.findings);
   if (tonicity.pseudo) cautions.add("pseudohyponatraemia");
 
+  // Built in one shape, each field possibly undefined: a conditional spread is slow on the hot path.
   const crisis = readCrisis({
     inputs,
-    ...(options.glucoseWritten && { glucoseWritten: options.glucoseWritten }),
-    ...(effective && { effective: effective.value }),
-    ...(noEthanol && { calculatedNoEthanol: noEthanol.value }),
-    ...(calculated && inputs.ethanol !== undefined && { calculatedWithEthanol: calculated.value }),
-    ...(gap && { gap: gap.value }),
+    glucoseWritten: options.glucoseWritten,
+    effective: effective?.value,
+    calculatedNoEthanol: noEthanol?.value,
+    calculatedWithEthanol: inputs.ethanol !== undefined ? calculated?.value : undefined,
+    gap: gap?.value,
   });
   findings.push(...crisis);
   const ketoacidosis = crisis.some(

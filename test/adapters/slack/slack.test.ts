@@ -10,6 +10,7 @@ import { type HttpServer, startServer } from "../../../bot/server.js";
 import { SHORT_CAUTIONS } from "../../../core/cautions.js";
 import { fixture } from "../../helpers/fixtures.js";
 import { BOT_USER_ID, type FakeSlack, fakeSlack, form, postSigned } from "../../helpers/slack.js";
+import { withoutTimes } from "../../helpers/times.js";
 
 const SECRET = "slack-signing-secret-for-tests";
 const PANEL = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
@@ -309,7 +310,7 @@ describe("privacy", () => {
       for (const secret of ["Blackwood", "7712093", "1957"])
         expect(JSON.stringify(answer.body)).not.toContain(secret);
     }
-    const everything = logs.join("\n") + store.dump();
+    const everything = withoutTimes(logs.join("\n") + store.dump());
     for (const secret of [
       "Blackwood",
       "7712093",

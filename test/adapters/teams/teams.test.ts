@@ -12,6 +12,7 @@ import { cardProblems } from "../../helpers/cards.js";
 import { fixture } from "../../helpers/fixtures.js";
 import { type KeySet, localKeySet } from "../../helpers/keys.js";
 import { type FakeConnector, fakeConnector, replay } from "../../helpers/teams.js";
+import { withoutTimes } from "../../helpers/times.js";
 
 const PANEL = "Na 128 glu 540 mg/dL urea 14 mmol/L osm 310";
 const logs: string[] = [];
@@ -175,7 +176,7 @@ describe("Teams with authentication off (TEAMS_LOCAL=1, no app ID)", () => {
     await post(replay(recorded, `Mrs Penhaligon DOB 4/5/1949 ${PANEL}`, connector.serviceUrl));
     const [sent] = await connector.waitFor(1);
     expect(JSON.stringify(sent!.activity)).not.toContain("Penhaligon");
-    const everything = logs.join("\n") + store.dump();
+    const everything = withoutTimes(logs.join("\n") + store.dump());
     for (const secret of [
       "Penhaligon",
       "1949",
