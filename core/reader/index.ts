@@ -154,7 +154,8 @@ interface Cell {
   line: number;
   start: number;
   end: number;
-  specimens: Set<Specimen>;
+  /** Each specimen named for it, once (an array: a cell names at most three). */
+  specimens: Specimen[];
   /** Earlier on the same line, an analyte was qualified as urine by its own word. */
   afterInlineUrine: boolean;
   /** No specimen of its own, after a urine section that ended (see readMessage). */
@@ -178,7 +179,6 @@ interface Cell {
 const NO_INDEXES: ReadonlySet<number> = new Set();
 const NO_MASK = new Uint8Array(0);
 const NO_LABELS: never[] = [];
-const NO_SPECIMEN_LIST: Specimen[] = [];
 const NO_SPECIMENS: ReadonlyMap<number, never> = new Map<number, never>();
 
 const NAME_OF: Record<AnalyteId, string> = Object.fromEntries(
@@ -403,14 +403,14 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       const nextLabel = labels.find((m) => m.first > anchor.last && m.first < end);
       if (nextLabel) end = nextLabel.first;
       const cell = readCell(anchor, lexemes.slice(anchor.last + 1, end), lineNo);
-      if (prefix && !labels.includes(prefix)) cell.specimens.add(prefix.entry.specimen);
-      if (anchor.entry.kind === "analyte" && anchor.entry.specimen) cell.specimens.add(anchor.entry.specimen);
-      if (lineSpecimen && cell.specimens.size === 0) cell.specimens.add(lineSpecimen);
-      if (cell.specimens.size === 0 && section) cell.specimens.add(section);
+      if (prefix && !labels.includes(prefix)) addSpecimen(cell, prefix.entry.specimen);
+      if (anchor.entry.kind === "analyte" && anchor.entry.specimen) addSpecimen(cell, anchor.entry.specimen);
+      if (lineSpecimen && cell.specimens.length === 0) addSpecimen(cell, lineSpecimen);
+      if (cell.specimens.length === 0 && section) addSpecimen(cell, section);
       cell.afterInlineUrine = inlineUrine && !lineSpecimen;
       if (section) sectionValues++;
-      cell.afterUrineSection = afterUrine && cell.specimens.size === 0;
-      if (cell.specimens.has("urine") && lineSpecimen !== "urine" && section !== "urine") inlineUrine = true;
+      cell.afterUrineSection = afterUrine && cell.specimens.length === 0;
+      if (cell.specimens.includes("urine") && lineSpecimen !== "urine" && section !== "urine") inlineUrine = true;
       cell.start = lexemes[anchor.first]!.start;
       cell.end = lexemes[end - 1]?.end ?? cell.start;
       unknown += cell.unknownWords;
@@ -591,6 +591,10 @@ function mergeAnionGapPotassium(lexemes: readonly Lexeme[], matches: NameMatch[]
   return out;
 }
 
+function addSpecimen(cell: Cell, specimen: Specimen): void {
+  if (!cell.specimens.includes(specimen)) cell.specimens.push(specimen);
+}
+
 /** Reads the lexemes after a name: results, units, ranges, flags, specimen and other qualifiers. */
 function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
   const cell: Cell = {
@@ -598,7 +602,7 @@ function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
     line,
     start: 0,
     end: 0,
-    specimens: new Set(),
+    specimens: [],
     afterInlineUrine: false,
     afterUrineSection: false,
     results: [],
@@ -624,7 +628,7 @@ function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
     // blood, not which sample: only a specimen word names one there ("Sodium, urine") — and "U",
     // which never means blood ("Na (U) 71").
     if (entry?.kind === "specimen" && (l.lower.length > 1 || entry.specimen === "urine"))
-      cell.specimens.add(entry.specimen);
+      addSpecimen(cell, entry.specimen);
     else if (entry?.kind === "specimen") {
       // read past
     } else if (isOsm && CALCULATED_MARKERS.has(l.lower)) cell.calculated = true;
@@ -864,7 +868,7 @@ function near(cell: Cell): string {
 function cellName(cell: Cell): string {
   const e = cell.entry;
   if (e.kind === "analyte") {
-    const urine = cell.specimens.has("urine") && URINE_COUNTERPART[e.id];
+    const urine = cell.specimens.includes("urine") && URINE_COUNTERPART[e.id];
     return NAME_OF[urine || e.id];
   }
   if (e.kind === "claim") return CLAIM_NAMES[e.id];
@@ -890,7 +894,7 @@ function readValue(
   }
   // Specimen: named by the alias, a word before or after the name, the line's label or the section.
   // Stryker disable next-line all: a fast path for the common case; both branches give the same result
-  const specimens = cell.specimens.size === 0 ? NO_SPECIMEN_LIST : [...cell.specimens];
+  const specimens = cell.specimens;
   if (specimens.length > 1) {
     problems.push({
       code: "specimen.conflict",
