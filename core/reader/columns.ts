@@ -33,8 +33,9 @@ interface Stamp {
   rank?: number;
 }
 
-const minutes = (y: number, m: number, d: number, t: number) =>
-  m >= 1 && m <= 12 && d >= 1 && d <= 31 ? ((y * 12 + (m - 1)) * 31 + (d - 1)) * 1440 + t : undefined;
+/** Minutes since an arbitrary epoch for a day (31 days to every month: only the order matters). */
+const minutes = (y: number, m: number, d: number) =>
+  m >= 1 && m <= 12 && d >= 1 && d <= 31 ? ((y * 12 + m) * 31 + d) * 1440 : undefined;
 
 function parseTime(text: string): number | undefined {
   const m = /^(\d{1,2})[:h](\d{2})/i.exec(text);
@@ -57,7 +58,8 @@ function parseDate(
     const y = m[3] ? Number(m[3]) % 100 : 0;
     return { dm: [y, b, a], md: [y, a, b] };
   }
-  m = /^(\d{1,2})[-\s]?([a-z]{3,9})(?:[-\s]?(\d{2,4}))?$/i.exec(text);
+  // A lexeme holds no space, so "2 Dec 2026" never reaches here as one piece.
+  m = /^(\d{1,2})-?([a-z]{3,9})(?:-?(\d{2,4}))?$/i.exec(text);
   if (m && MONTHS[m[2]!.toLowerCase()]) {
     const ymd: [number, number, number] = [
       m[3] ? Number(m[3]) % 100 : 0,
@@ -90,9 +92,9 @@ export function headerStamps(lexemes: readonly Lexeme[]): Stamp[] {
     } else if (text) {
       const date = parseDate(text);
       if (date) {
-        const dm = date.dm && minutes(date.dm[0], date.dm[1], date.dm[2], 0);
-        const md = date.md && minutes(date.md[0], date.md[1], date.md[2], 0);
-        stamps.push({ ...(dm !== undefined && { dm }), ...(md !== undefined && { md }) });
+        const dm = date.dm && minutes(date.dm[0], date.dm[1], date.dm[2]);
+        const md = date.md && minutes(date.md[0], date.md[1], date.md[2]);
+        stamps.push({ dm, md });
         pendingTime = undefined;
       }
     }
@@ -145,7 +147,7 @@ export function rangeColumns(
   for (const l of lexemes) {
     if (l.kind === "time" || l.kind === "masked" || l.kind === "number") return undefined;
     if (l.kind !== "word" && l.kind !== "flag") continue;
-    const role = ROLE_WORDS[l.kind === "word" ? l.lower : l.text.toLowerCase()];
+    const role = ROLE_WORDS[l.text.toLowerCase()];
     if (role) order.push(role);
   }
   const result = order.indexOf("result");

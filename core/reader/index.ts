@@ -410,7 +410,8 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
       cell.afterInlineUrine = inlineUrine && !lineSpecimen;
       if (section) sectionValues++;
       cell.afterUrineSection = afterUrine && cell.specimens.length === 0;
-      if (cell.specimens.includes("urine") && lineSpecimen !== "urine" && section !== "urine") inlineUrine = true;
+      if (cell.specimens.includes("urine") && lineSpecimen !== "urine" && section !== "urine")
+        inlineUrine = true;
       cell.start = lexemes[anchor.first]!.start;
       cell.end = lexemes[end - 1]?.end ?? cell.start;
       unknown += cell.unknownWords;

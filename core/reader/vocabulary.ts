@@ -398,6 +398,8 @@ export const FILLER = new Set([
   "overnight",
   "here",
   "are",
+  // The water of "mOsm/kg H2O", written apart from its unit on many printouts.
+  "h2o",
   "&",
   "+",
   "->",
@@ -426,7 +428,6 @@ export const UNIT_SPELLINGS: readonly (readonly [string, Unit])[] = [
   ["mosm/kg", "mOsm/kg"],
   ["mosmol/kg", "mOsm/kg"],
   ["mosm/kgh2o", "mOsm/kg"],
-  ["mosm/kg h2o", "mOsm/kg"],
   ["mosm", "mOsm/kg"],
   ["mosm/l", "mOsm/L"],
   ["mosmol/l", "mOsm/L"],

@@ -92,3 +92,21 @@ describe("what splits a token and what stays inside one", () => {
     ]);
   });
 });
+
+describe("digits beside a comma or colon", () => {
+  // Every digit on each side keeps the decimal comma or the time inside its token.
+  it.each(["0", "1", "5", "8", "9"].flatMap((d) => [`${d},${d}`, `${d}:${d}5`]))(
+    "%s is one token",
+    (text) => {
+      expect(tokenize(text).map((t) => t.text)).toEqual([text]);
+    },
+  );
+  it.each([
+    ["a,9", ["a", "9"]],
+    ["9,a", ["9", "a"]],
+    ["/,9", ["9"]],
+    ["9:/", ["9"]],
+  ])("%s is split: %j", (text, expected) => {
+    expect(tokenize(text).map((t) => t.text)).toEqual(expected);
+  });
+});

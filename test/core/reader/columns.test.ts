@@ -154,3 +154,43 @@ describe("month names in a header", () => {
     expect(latestColumn(stamps(header), header.split(" ").length - 1)).toBe(expected);
   });
 });
+
+describe("header stamps, piece by piece", () => {
+  it("a time on its own is a column of its own; a second time after a date is too", () => {
+    expect(stamps("Test 06:00 14:00")).toHaveLength(2);
+    expect(stamps("Test 02/12 06:00 14:00")).toHaveLength(2);
+    expect(stamps("Test previous 06:00")).toHaveLength(2);
+  });
+
+  it("a time adds only to the readings a date has", () => {
+    // 13/11 can only be day-month: the month-day reading stays missing after its time.
+    expect(stamps("Test 13/11 06:00")[0]!.md).toBeUndefined();
+  });
+
+  it("plain numbers in a header are no dates", () => {
+    expect(stamps("Test 2.12 3.12")).toEqual([]);
+  });
+
+  it("a two-digit year after a month name is the same year as four digits", () => {
+    expect(latestColumn(stamps("Test 1-Jan-26 31-Dec-2025"), 2)).toBe(0);
+    expect(latestColumn(stamps("Test 31-Dec-2025 1-Jan-26"), 2)).toBe(1);
+  });
+
+  it("one word among dates is not an order", () => {
+    expect(latestColumn(stamps("Test current 02/12"), 2)).toBeUndefined();
+    expect(latestColumn(stamps("Test 02/12 current"), 2)).toBeUndefined();
+  });
+});
+
+describe("a range header with commas, or one end missing", () => {
+  const header = (text: string) => lexLine(text, 0, () => false, isName);
+  it.each([
+    ["Test, Result, Low, High", { result: 0, low: 1, high: 2 }],
+    ["Test | Value | Min | Max", { result: 0, low: 1, high: 2 }],
+    ["Test Low High Max", undefined],
+    ["Test Result High Max", undefined],
+    ["Test Result Low Min", undefined],
+  ] as [string, unknown][])("%s", (text, expected) => {
+    expect(rangeColumns(header(text))).toEqual(expected);
+  });
+});

@@ -6,7 +6,12 @@ import {
   BLOOD_GAS_ALIASES,
   CLAIM_ALIASES,
   type ClaimKind,
+  CORRECTED_MARKERS,
+  FILLER,
+  OTHER_TESTS,
   SPECIMEN_WORDS,
+  UNIT_SPELLINGS,
+  WITH_POTASSIUM,
 } from "../../../core/reader/vocabulary.js";
 
 describe("the vocabulary", () => {
@@ -85,5 +90,64 @@ describe("every spelling, read in a message", () => {
     expect(reading.values.map((v) => v.key).sort()).toEqual(
       ["bicarbonate", "chloride", "glucose", "potassium", "sodium", "urea"].sort(),
     );
+  });
+});
+
+describe("every unit spelling, every other test, every marker and filler word, read in a message", () => {
+  // A value each unit is written with, for an analyte that takes that unit (our own invented values).
+  const withUnit: Record<string, string> = {
+    "mmol/L": "Na 140",
+    "mEq/L": "Na 140",
+    "mg/dL": "glucose 90",
+    "mg/L": "glucose 900",
+    "g/L": "albumin 30",
+    "g/dL": "albumin 3",
+    "mOsm/kg": "osm 290",
+    "mOsm/L": "osm 290",
+  };
+  it.each(UNIT_SPELLINGS.map(([spelling, unit]) => [spelling, unit] as const))(
+    "%s is %s",
+    (spelling, unit) => {
+      const reading = readMessage(`${withUnit[unit]} ${spelling}`);
+      expect(reading.problems).toEqual([]);
+      expect(reading.values.map((v) => v.unit)).toEqual([unit]);
+    },
+  );
+
+  it("mOsm/kg H2O, written apart, reads without a word not understood", () => {
+    const reading = readMessage("osm 290 mOsm/kg H2O");
+    expect(reading.problems).toEqual([]);
+    expect(reading.values.map((v) => [v.key, v.canonical])).toEqual([["measuredOsmolality", 290]]);
+  });
+
+  it.each(Object.entries(OTHER_TESTS).flatMap(([group, names]) => names.map((n) => [n, group] as const)))(
+    "%s is a test of ours not used (%s), never a word not understood",
+    (name, group) => {
+      const reading = readMessage(`Na 140 ${name} 5`);
+      expect(reading.values.map((v) => v.key)).toEqual(["sodium"]);
+      expect(reading.notUsed).toEqual([group]);
+      expect(reading.problems.map((p) => p.code)).not.toContain("word.unknown");
+    },
+  );
+
+  it.each([...CORRECTED_MARKERS])("sodium %s is a corrected sodium, checked, never the sodium", (marker) => {
+    const reading = readMessage(`Na 128 glucose 30 mmol/L sodium ${marker} 135`);
+    expect(reading.claims.map((c) => c.kind)).toEqual(["correctedSodium"]);
+    expect(reading.inputs.sodium).toBe(128);
+  });
+
+  it.each([...WITH_POTASSIUM])("anion gap %s counts potassium", (words) => {
+    const reading = readMessage(`Na 140 K 4 Cl 100 HCO3 24 anion gap ${words} 20`);
+    expect(reading.claims.map((c) => [c.kind, c.withPotassium])).toEqual([["anionGap", true]]);
+    expect(reading.inputs.potassium).toBe(4);
+  });
+
+  it.each([...FILLER])("%j between two values is read past", (word) => {
+    const reading = readMessage(`Na 140 ${word} K 4`);
+    expect(reading.values.map((v) => [v.key, v.canonical])).toEqual([
+      ["sodium", 140],
+      ["potassium", 4],
+    ]);
+    expect(reading.problems).toEqual([]);
   });
 });
