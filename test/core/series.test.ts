@@ -285,3 +285,25 @@ describe("a series' segments and the values each point keeps", () => {
     expect(s.timed).toBe(true);
   });
 });
+
+describe("a series that asks keeps no points, and a bracketed time first", () => {
+  it.each([
+    ["Na 118 at 9, 121 at 14:00", "series.timeAmbiguous"],
+    ["Na 118 at 22:00, 121", "series.timeMissing"],
+    ["Na 118 at 22:00, 121 at 22:00", "series.sameTime"],
+    ["Na 118 at 22:00, 121 (6 h)", "series.mixedTimes"],
+  ])("%s gives no points (%s)", (text, code) => {
+    const s = readSeries(text);
+    expect(s.points).toEqual([]);
+    expect(s.problems.map((p) => p.code)).toContain(code);
+    expect(s.timed).toBe(true);
+  });
+
+  it("a time in brackets before each value belongs to the value after it", () => {
+    // The time's bracket is the second character of the piece as padded: still time-first.
+    expect(readSeries("(22:10) Na 127 (04:30) Na 131").points).toEqual([
+      { hours: 0, sodium: 127 },
+      { hours: 6 + 20 / 60, sodium: 131 },
+    ]);
+  });
+});
