@@ -402,7 +402,7 @@ export function readMessage(text: string, options: ReadOptions = {}): Reading {
         : lexemes.length;
       const nextLabel = labels.find((m) => m.first > anchor.last && m.first < end);
       if (nextLabel) end = nextLabel.first;
-      const cell = readCell(anchor, lexemes.slice(anchor.last + 1, end), lineNo);
+      const cell = readCell(anchor, lexemes, anchor.last + 1, end, lineNo);
       if (prefix && !labels.includes(prefix)) addSpecimen(cell, prefix.entry.specimen);
       if (anchor.entry.kind === "analyte" && anchor.entry.specimen) addSpecimen(cell, anchor.entry.specimen);
       if (lineSpecimen && cell.specimens.length === 0) addSpecimen(cell, lineSpecimen);
@@ -596,8 +596,11 @@ function addSpecimen(cell: Cell, specimen: Specimen): void {
   if (!cell.specimens.includes(specimen)) cell.specimens.push(specimen);
 }
 
-/** Reads the lexemes after a name: results, units, ranges, flags, specimen and other qualifiers. */
-function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
+/**
+ * Reads the lexemes after a name (`lexemes[from]` up to `lexemes[to]`, not included): results,
+ * units, ranges, flags, specimen and other qualifiers.
+ */
+function readCell(anchor: NameMatch, lexemes: Lexeme[], from: number, to: number, line: number): Cell {
   const cell: Cell = {
     entry: anchor.entry,
     line,
@@ -649,13 +652,13 @@ function readCell(anchor: NameMatch, lexemes: Lexeme[], line: number): Cell {
   };
 
   let rangeIntro = false;
-  for (let i = 0; i < lexemes.length; i++) {
+  for (let i = from; i < to; i++) {
     const l = lexemes[i]!;
     if (l.kind === "open") {
       // A bracket group: a range, a unit, a flag, a qualifier — or an extra result.
       let depth = 1;
       let j = i + 1;
-      while (j < lexemes.length && depth > 0) {
+      while (j < to && depth > 0) {
         if (lexemes[j]!.kind === "open") depth++;
         if (lexemes[j]!.kind === "close") depth--;
         if (depth > 0) j++;
