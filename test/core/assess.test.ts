@@ -278,3 +278,118 @@ describe("assess: what the mutation run found unguarded", () => {
     );
   });
 });
+
+describe("the osmolal gap's edges with ethanol, mannitol and the anion gap", () => {
+  // Canonical inputs (mmol/L), invented. Without ethanol the calculated osmolality is
+  // 2 × 140 + 5 + 5 = 290 (Smithline & Gardner); ethanol adds its molar value (Purssell: × 1.25).
+  // The usual limit is a gap below 10 (common practice; REFERENCES.md §3).
+  const base = { sodium: 140, glucose: 5, urea: 5 };
+
+  it.each([
+    // [ethanol, measured, explained by ethanol?]: without ethanol the gap is measured − 290.
+    [4, 300, true], // 10 before ethanol, 6 after
+    [4, 299.9, false], // 9.9 before: nothing to explain
+    [4, 303.9, true], // 9.9 after
+    [4, 304, false], // 10 after: still raised
+  ] as const)("ethanol %s, measured %s: explained is %s", (ethanol, measured, explained) => {
+    const a = assess({ ...base, ethanol, measuredOsmolality: measured });
+    expect(codes(a).includes("gap.explainedByEthanol")).toBe(explained);
+  });
+
+  it.each([
+    // [measured, the ethanol factor decides?] with ethanol 8: gap = measured − 298, by 1.25 = measured − 300.
+    [308, true], // 10 and 8
+    [307.9, false], // 9.9 and 7.9
+    [310, false], // 12 and 10
+    [309.9, true], // 11.9 and 9.9
+  ] as const)("ethanol 8, measured %s: the factor decides is %s", (measured, decides) => {
+    const a = assess({ ...base, ethanol: 8, measuredOsmolality: measured });
+    expect(codes(a).includes("gap.dependsOnEthanolFactor")).toBe(decides);
+  });
+
+  it("an alcohol or mannitol measured at 0 explains nothing and is not named", () => {
+    const a = assess({ ...base, measuredOsmolality: 305, methanol: 0, mannitol: 0 });
+    expect(codes(a)).not.toContain("gap.measuredAlcohols");
+    expect(a.results.effectiveOsmolality!.value).toBe(285);
+    expect(a.results.effectiveOsmolality!.formula).toBe("2·Na + glucose");
+  });
+
+  it("mannitol counts in the effective osmolality, and ethanol in the potassium formula", () => {
+    // By hand: 2 × 140 + 5 + 10 = 295; 2 × (140 + 4) + 5 + 5 + 10 = 308.
+    const a = assess({ ...base, mannitol: 10 });
+    expect(a.results.effectiveOsmolality!.value).toBe(295);
+    expect(a.results.effectiveOsmolality!.working).toBe("2 × 140 + 5 + 10 = 295.0 mOsm/kg");
+    const k = assess({ ...base, potassium: 4, ethanol: 10 });
+    const withK = k.alternatives.find((r) => r.id === "calculatedOsmolality.potassium")!;
+    expect(withK.value).toBe(308);
+    expect(withK.formula).toBe("2·(Na + K) + glucose + urea + ethanol");
+  });
+
+  // Anion gap 140 − (100 + 10) = 30, raised (range up to 11); glucose 5: no crisis reading.
+  const acid = { ...base, chloride: 100, bicarbonate: 10 };
+  it.each([
+    [300, "pattern.bothRaised"], // gap 10
+    [299.9, "pattern.lateAlcohol"], // gap 9.9
+  ] as const)("measured %s with a raised anion gap: %s", (measured, pattern) => {
+    expect(codes(assess({ ...acid, measuredOsmolality: measured }))).toContain(pattern);
+  });
+
+  it.each([
+    [4, "lactic acidosis first"],
+    [3.9, "ketoacidosis, lactic acidosis or renal failure first"],
+  ] as const)("lactate %s with a raised anion gap and a normal osmolal gap: %s", (lactate, text) => {
+    const late = assess({ ...acid, measuredOsmolality: 295, lactate }).findings.find(
+      (f) => f.code === "pattern.lateAlcohol",
+    )!;
+    expect(late.text).toContain(text);
+  });
+
+  it("ketoacidosis, decided or not yet, takes the place of the late-alcohol pattern", () => {
+    // DKA met (2024 consensus): β-hydroxybutyrate ≥ 3.0 with bicarbonate < 18 and glucose ≥ 11.1.
+    const dka = assess({
+      sodium: 140,
+      glucose: 15,
+      urea: 5,
+      chloride: 100,
+      bicarbonate: 10,
+      betaHydroxybutyrate: 5,
+      measuredOsmolality: 305,
+    });
+    expect(codes(dka)).toContain("dka.met");
+    expect(codes(dka)).not.toContain("pattern.lateAlcohol");
+    // Acidosis with glucose ≥ 11.1 and no ketones given: undecided, and still no late-alcohol pattern.
+    const undecided = assess({
+      sodium: 140,
+      glucose: 15,
+      urea: 5,
+      chloride: 100,
+      bicarbonate: 10,
+      measuredOsmolality: 305,
+    });
+    expect(codes(undecided)).toContain("dka.undecided");
+    expect(codes(undecided)).not.toContain("pattern.lateAlcohol");
+    // The mixed state: glucose 40, effective 2 × 150 + 40 = 340 > 300, with DKA.
+    const mixed = assess({
+      sodium: 150,
+      glucose: 40,
+      urea: 5,
+      chloride: 100,
+      bicarbonate: 10,
+      betaHydroxybutyrate: 5,
+      measuredOsmolality: 350,
+    });
+    expect(codes(mixed)).toContain("dkaHhs.mixed");
+    expect(codes(mixed)).not.toContain("pattern.lateAlcohol");
+    // Beside any of them, a raised gap keeps a toxic alcohol in the differential as a warning.
+    const gapped = assess({
+      sodium: 150,
+      glucose: 40,
+      urea: 5,
+      chloride: 100,
+      bicarbonate: 10,
+      betaHydroxybutyrate: 5,
+      measuredOsmolality: 370,
+    });
+    expect(gapped.findings.find((f) => f.code === "toxicAlcohol.possible")!.severity).toBe("warning");
+  });
+});

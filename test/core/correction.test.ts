@@ -310,3 +310,53 @@ describe("the extreme of a window", () => {
     expect(t.findings[0]!.code).toBe("correction.tooFast");
   });
 });
+
+describe("the last value, the window's own clock, and the words of each direction", () => {
+  it("a sodium of no direction is judged by its last value, not its second", () => {
+    // Normal range 135–145 (REFERENCES §8): leaving it is a danger; coming back into it is not.
+    expect(codes(pts([0, 140], [6, 140], [12, 150]))).toContain("correction.worsening");
+    expect(codes(pts([0, 140], [6, 150], [12, 140]))).not.toContain("correction.worsening");
+  });
+
+  it("a worsening says which way it went", () => {
+    const down = correctionTrend(pts([0, 120], [6, 117]))!.findings.find(
+      (f) => f.code === "correction.worsening",
+    )!;
+    expect(down.text).toContain("has fallen from 120.0 to 117.0");
+    expect(down.text).toContain("in a hyponatraemia");
+    const up = correctionTrend(pts([0, 160], [6, 163]))!.findings.find(
+      (f) => f.code === "correction.worsening",
+    )!;
+    expect(up.text).toContain("has risen from 160.0 to 163.0");
+    expect(up.text).toContain("in a hypernatraemia");
+  });
+
+  it("the rate is the change over the time the values span, not over the time since", () => {
+    // +6 in 6 h is 1 per hour, even when it is asked about at hour 8.
+    const t = correctionTrend(pts([0, 120], [6, 126]), { nowHours: 8 })!;
+    expect(t.projected).toEqual({ perHour: 1, atWindowEnd: 24 });
+  });
+
+  it("a window that has just begun projects nothing yet", () => {
+    // Hour 24.5 is half an hour into the second window: too soon for a rate.
+    const t = correctionTrend(pts([0, 120], [12, 124], [24.5, 125]))!;
+    expect(t.projected).toBeUndefined();
+  });
+
+  it("lowering a hypernatraemia speaks of a fall, and of no high risk", () => {
+    // −6 in 6 h projects to −24 over the day, above the 10 a day for lowering (REFERENCES §5 [M/P]).
+    const t = correctionTrend(pts([0, 160], [6, 154]), { highRisk: true })!;
+    const open = t.findings.find((f) => f.code === "correction.windowOpen")!;
+    expect(open.text).toContain("the fall would reach 24");
+    expect(t.findings.map((f) => f.text).join(" ")).not.toContain("at high risk");
+  });
+});
+
+describe("a plan with no values over time yet", () => {
+  it("lowering a hypernatraemia keeps its own limit, whatever the risk", () => {
+    // About 10 a day for lowering (REFERENCES §5 [M/P]); the high-risk 8 is for raising (Verbalis 2013 [M]).
+    expect(planFits(undefined, -9, true, 160)).toMatchObject({ limit: 10, fits: true });
+    expect(planFits(undefined, 9, true, 118)).toMatchObject({ limit: 8, fits: false });
+    expect(planFits(undefined, 9, false, 118)).toMatchObject({ limit: 10, fits: true });
+  });
+});

@@ -212,3 +212,63 @@ describe("what the crisis findings say", () => {
     expect(codes.filter((c) => /^(dka|hhs|dkaHhs)/.test(c))).toEqual([]);
   });
 });
+
+describe("the crisis criteria at their edges, as the texts say them", () => {
+  // Invented panels in canonical units. 2024 consensus (Umpierrez et al., Diabetes Care 2024).
+  it.each([
+    // [urea, gap caveat?]: Na 130, glucose 35: effective 295 (not > 300); measured 321 > 320.
+    [16, true], // calculated 311, gap 10: the total rests on the gap
+    [16.1, false], // calculated 311.1, gap 9.9
+  ] as const)("urea %s: the total rests on an unexplained gap is %s", (urea, caveat) => {
+    const a = assess({ sodium: 130, glucose: 35, urea, measuredOsmolality: 321 });
+    const hhs = a.findings.find((f) => f.code === "hhs.met")!;
+    expect(hhs.text.includes("unexplained osmolal gap")).toBe(caveat);
+  });
+
+  it.each([
+    // [urea, ethanol, caveat?] with no measured osmolality: total with ethanol against without.
+    [10, 15, false], // 305 and 320: neither above 320
+    [10, 15.1, true], // 305 and 320.1: ethanol decides
+    [25, 5, true], // 320 and 325: ethanol decides
+    [25.1, 5, false], // 320.1 and 325.1: both above
+  ] as const)("urea %s, ethanol %s: the ethanol caveat is %s", (urea, ethanol, caveat) => {
+    const a = assess({ sodium: 130, glucose: 35, urea, ethanol });
+    const text = a.findings
+      .filter((f) => f.code.startsWith("hhs"))
+      .map((f) => f.text)
+      .join(" ");
+    expect(text.includes("whether the 2024 total counts ethanol is not settled")).toBe(caveat);
+  });
+
+  it("HHS met: the short line names what is still to come, and nothing when all are given", () => {
+    const none = assess({ sodium: 150, glucose: 40, urea: 5 }).findings.find((f) => f.code === "hhs.met")!;
+    expect(none.brief).toContain("Next: ketones, pH, bicarbonate.");
+    const all = assess({
+      sodium: 150,
+      glucose: 40,
+      urea: 5,
+      betaHydroxybutyrate: 1,
+      pH: 7.35,
+      bicarbonate: 20,
+    });
+    const met = all.findings.find((f) => f.code === "hhs.met")!;
+    expect(met.brief).not.toContain("Next:");
+  });
+
+  it("β-hydroxybutyrate exactly 3.0 is ketosis for DKA", () => {
+    // Without pH and bicarbonate: undecided; with no acidosis: not met, and not called below 3.0.
+    const alone = assess({ sodium: 140, glucose: 15, urea: 5, betaHydroxybutyrate: 3.0 });
+    expect(codes(alone)).toContain("dka.undecided");
+    const noAcid = assess({
+      sodium: 140,
+      glucose: 15,
+      urea: 5,
+      betaHydroxybutyrate: 3.0,
+      pH: 7.4,
+      bicarbonate: 24,
+    });
+    const notMet = noAcid.findings.find((f) => f.code === "dka.notMet")!;
+    expect(notMet.text).not.toContain("< 3.0");
+    expect(notMet.text).toContain("no acidosis (pH 7.4, bicarbonate 24)");
+  });
+});

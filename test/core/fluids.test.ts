@@ -1,5 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { adrogueMadias, freeWaterDeficit, INFUSATES, tbwFraction, volumeChange } from "../../core/fluids.js";
+import {
+  adrogueMadias,
+  freeWaterDeficit,
+  INFUSATES,
+  tbwFraction,
+  totalBodyWater,
+  volumeChange,
+} from "../../core/fluids.js";
 
 describe("the formulas against REFERENCES.md §5", () => {
   // Check values [D], REFERENCES.md §5; formula: Adrogué & Madias, NEJM 2000;342:1581 [C].
@@ -52,5 +59,32 @@ describe("the formulas against REFERENCES.md §5", () => {
       "dextrose-5": [0, 0],
       "bicarbonate-8.4": [1000, 0],
     });
+  });
+});
+
+describe("total body water and the volume balance, worked by hand", () => {
+  it("total body water is weight × fraction, with its working", () => {
+    // Common teaching (REFERENCES.md §5, from memory [M]): 70 kg × 0.6 = 42 L.
+    const tbw = totalBodyWater(70, 0.6, "adult male");
+    expect(tbw.value).toBeCloseTo(42, 10);
+    expect(tbw.unit).toBe("L");
+    expect(tbw.working).toBe("70 kg × 0.6 (adult male) = 42.0 L");
+    expect(totalBodyWater(80, 0.5, "adult female").value).toBeCloseTo(40, 10);
+  });
+
+  it("an adult or older person of no stated sex has no fraction; a child has one", () => {
+    expect(tbwFraction("adult", undefined)).toBeUndefined();
+    expect(tbwFraction("elderly", undefined)).toBeUndefined();
+    expect(tbwFraction("child", "female")).toBe(0.6);
+  });
+
+  it("the potassium of the fluid counts, for any volume", () => {
+    // Adrogué–Madias mass balance (NEJM 2000;342:1581), worked by hand: 0.5 L of a fluid with
+    // Na 130 and K 4 into 40 L at Na 120: 0.5 × (130 + 4 − 120) ÷ 40.5 = 0.1728…
+    const fluid = { name: "test fluid", sodium: 130, potassium: 4 };
+    const r = volumeChange(120, 40, fluid, 0.5);
+    expect(r.value).toBeCloseTo((0.5 * 14) / 40.5, 10);
+    expect(r.label).toBe("Change in serum sodium for 500 mL");
+    expect(adrogueMadias(120, 40, fluid).value).toBeCloseTo(14 / 41, 10);
   });
 });

@@ -65,3 +65,20 @@ describe("the urine work-up (Spasovski 2014 algorithm — from memory [M], to be
     expect(codes(assess({ sodium: 125 }))).not.toContain("urine.notApplied");
   });
 });
+
+describe("the urine sodium's text, with and without a urine osmolality", () => {
+  // Invented hypotonic hyponatraemia (2 × 120 + 5 + 4 = 249; measured 250).
+  const hypo = { sodium: 120, glucose: 5, urea: 4, measuredOsmolality: 250 };
+  it("with both, the text gives the osmolality first and asks for nothing more", () => {
+    const a = assess({ ...hypo, urineOsmolality: 300, urineSodium: 20 });
+    const low = a.findings.find((f) => f.code === "urine.lowSodium")!;
+    expect(low.text).toContain("With urine osmolality 300 > 100 and urine sodium 20 ≤ 30");
+    expect(codes(a)).not.toContain("hyponatraemia.nextStep");
+  });
+  it("with the sodium alone, it asks for the osmolality and says nothing of it", () => {
+    const a = assess({ ...hypo, urineSodium: 40 });
+    const high = a.findings.find((f) => f.code === "urine.highSodium")!;
+    expect(high.text).toMatch(/^With urine sodium 40 > 30/);
+    expect(a.findings.find((f) => f.code === "hyponatraemia.nextStep")!.text).toMatch(/urine osmolality too/);
+  });
+});
