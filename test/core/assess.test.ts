@@ -345,51 +345,29 @@ describe("the osmolal gap's edges with ethanol, mannitol and the anion gap", () 
   });
 
   it("ketoacidosis, decided or not yet, takes the place of the late-alcohol pattern", () => {
+    // Anion gap 30 throughout (Na − (Cl 100 + HCO3 10) with Na 140; 40 with Na 150).
+    const acidic = { urea: 5, chloride: 100, bicarbonate: 10 };
     // DKA met (2024 consensus): β-hydroxybutyrate ≥ 3.0 with bicarbonate < 18 and glucose ≥ 11.1.
     const dka = assess({
+      ...acidic,
       sodium: 140,
       glucose: 15,
-      urea: 5,
-      chloride: 100,
-      bicarbonate: 10,
       betaHydroxybutyrate: 5,
       measuredOsmolality: 305,
     });
     expect(codes(dka)).toContain("dka.met");
     expect(codes(dka)).not.toContain("pattern.lateAlcohol");
     // Acidosis with glucose ≥ 11.1 and no ketones given: undecided, and still no late-alcohol pattern.
-    const undecided = assess({
-      sodium: 140,
-      glucose: 15,
-      urea: 5,
-      chloride: 100,
-      bicarbonate: 10,
-      measuredOsmolality: 305,
-    });
+    const undecided = assess({ ...acidic, sodium: 140, glucose: 15, measuredOsmolality: 305 });
     expect(codes(undecided)).toContain("dka.undecided");
     expect(codes(undecided)).not.toContain("pattern.lateAlcohol");
     // The mixed state: glucose 40, effective 2 × 150 + 40 = 340 > 300, with DKA.
-    const mixed = assess({
-      sodium: 150,
-      glucose: 40,
-      urea: 5,
-      chloride: 100,
-      bicarbonate: 10,
-      betaHydroxybutyrate: 5,
-      measuredOsmolality: 350,
-    });
+    const mixedPanel = { ...acidic, sodium: 150, glucose: 40, betaHydroxybutyrate: 5 };
+    const mixed = assess({ ...mixedPanel, measuredOsmolality: 350 });
     expect(codes(mixed)).toContain("dkaHhs.mixed");
     expect(codes(mixed)).not.toContain("pattern.lateAlcohol");
     // Beside any of them, a raised gap keeps a toxic alcohol in the differential as a warning.
-    const gapped = assess({
-      sodium: 150,
-      glucose: 40,
-      urea: 5,
-      chloride: 100,
-      bicarbonate: 10,
-      betaHydroxybutyrate: 5,
-      measuredOsmolality: 370,
-    });
+    const gapped = assess({ ...mixedPanel, measuredOsmolality: 370 });
     expect(gapped.findings.find((f) => f.code === "toxicAlcohol.possible")!.severity).toBe("warning");
   });
 });
